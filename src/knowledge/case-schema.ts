@@ -1,0 +1,151 @@
+/**
+ * The dc-case/1 file: one job, its machine, what was reported and measured, and once solved what
+ * the cause was. Strict objects: an unknown field is an error naming it. Quantities are converted
+ * by the unit adapter into plain numbers in each field's default unit.
+ */
+import * as z from 'zod';
+import { CONNECTIONS, INSULATION_CLASSES, TESTED_WINDINGS } from '../model/machine.js';
+import { describeQuantityError, DIMENSIONS, parseQuantity, type Dimension } from '../units/quantity.js';
+import { COOLING, DRIVES, FEEDBACK, OBSERVATIONS, OBSERVATION_NAMES, SYMPTOM_IDS, SYMPTOMS, observationValues } from './vocabulary.js';
+
+export const SAFE_ID = /^[A-Za-z0-9][A-Za-z0-9._-]{0,79}$/;
+export const CASE_FORMAT = 'dc-case/1';
+
+/** A quantity: a string with a unit, or a bare number in the dimension's default unit. */
+export function quantity(dimension: Dimension, description: string) {
+  const unit = DIMENSIONS[dimension].unit;
+  return z
+    .union([z.string(), z.number()], { error: `expected a quantity such as "12 ${unit}" or a number in ${unit}` })
+    .transform((raw, ctx) => {
+      const parsed = parseQuantity(raw, dimension);
+      if (parsed.ok) return parsed.value;
+      ctx.addIssue({ code: 'custom', message: describeQuantityError(parsed.error), input: raw });
+      return z.NEVER;
+    })
+    .meta({ description: `${description} (default unit ${unit})` });
+}
+
+const safeId = z.string().regex(SAFE_ID, 'expected a safe id: letters, digits, ".", "_" or "-", starting with a letter or digit, at most 80 characters');
+
+const nameplate = z.strictObject({
+  armatureVoltage: quantity('voltage', 'rated armature voltage').optional(),
+  armatureCurrent: quantity('current', 'rated armature current').optional(),
+  lineCurrent: quantity('current', 'rated supply current, armature and shunt field together').optional(),
+  speed: quantity('speed', 'rated (full-load) speed').optional(),
+  noLoadSpeed: quantity('speed', 'no-load speed').optional(),
+  power: quantity('power', 'rated output').optional(),
+  fieldVoltage: quantity('voltage', 'rated field voltage').optional(),
+  fieldCurrent: quantity('current', 'rated (hot) field current').optional(),
+  insulationClass: z.enum(INSULATION_CLASSES).optional().meta({ description: 'thermal class (IEC 60085)' }),
+});
+
+const resistances = z.strictObject({
+  armature: quantity('resistance', 'armature circuit A1–A2: winding, interpoles and compensating winding, brushes excluded').optional(),
+  shuntField: quantity('resistance', 'shunt or separately excited field').optional(),
+  seriesField: quantity('resistance', 'series field').optional(),
+  interpole: quantity('resistance', 'interpole winding (already part of the armature circuit)').optional(),
+  at: quantity('temperature', 'winding temperature when measured').optional(),
+});
+
+const magnetization = z
+  .union([z.literal('linear'), z.array(z.tuple([z.number().min(0), z.number().min(0)])).min(2)], {
+    error: 'expected "linear" or a list of at least two [fieldCurrentPerUnit, fluxPerUnit] pairs',
+  })
+  .meta({ description: 'flux against exciting current, per unit of rated' });
+
+export const machineSchema = z.strictObject({
+  connection: z.enum(CONNECTIONS).meta({ description: 'how the field is connected' }),
+  drive: z.enum(DRIVES).optional().meta({ description: 'what feeds the armature (absent = unknown)' }),
+  feedback: z.enum(FEEDBACK).optional().meta({ description: 'speed feedback of a controlled drive (absent = unknown)' }),
+  tachoVoltsPer1000Rpm: z.number().positive().max(1000).optional(),
+  cooling: z.enum(COOLING).optional(),
+  nameplate: nameplate.optional(),
+  resistances: resistances.optional(),
+  magnetization: magnetization.optional(),
+  brushDrop: quantity('voltage', 'total brush contact drop').optional(),
+});
+
+const readingShape = {
+  armatureVoltage: quantity('voltage', "the machine's terminal voltage"),
+  supplyVoltage: quantity('voltage', 'voltage at the supply or drive end'),
+  armatureCurrent: quantity('current', 'armature current'),
+  fieldVoltage: quantity('voltage', 'field voltage'),
+  fieldCurrent: quantity('current', 'shunt or separate field current'),
+  lineCurrent: quantity('current', 'supply current (armature and shunt field)'),
+  speed: quantity('speed', 'speed'),
+  speedReverse: quantity('speed', 'speed at the same set-point in the other direction'),
+  noLoadArmatureCurrent: quantity('current', 'armature current running uncoupled'),
+  ambientTemperature: quantity('temperature', 'ambient or coolant temperature'),
+  armatureResistanceHot: quantity('resistance', 'armature circuit resistance measured hot'),
+  shuntFieldResistanceHot: quantity('resistance', 'shunt field resistance measured hot'),
+  insulationResistance1min: quantity('insulation', 'insulation resistance after 1 minute'),
+  insulationResistance10min: quantity('insulation', 'insulation resistance after 10 minutes'),
+  insulationTestTemperature: quantity('temperature', 'winding temperature during the insulation test'),
+  insulationTestVoltage: quantity('voltage', 'insulation tester voltage'),
+  insulationTestedWinding: z.enum(TESTED_WINDINGS),
+  tachoVoltage: quantity('signedVoltage', 'tacho generator output'),
+  currentLimitSetting: quantity('current', "drive's armature current limit"),
+  brushLength: quantity('length', 'shortest brush length'),
+  brushLengthNew: quantity('length', 'length of a new brush'),
+  brushSpringPressure: quantity('pressure', 'brush spring pressure'),
+  commutatorRunout: quantity('length', 'commutator runout (TIR)'),
+};
+export const readingsSchema = z.strictObject(
+  Object.fromEntries(Object.entries(readingShape).map(([k, s]) => [k, s.optional()])) as {
+    [K in keyof typeof readingShape]: z.ZodOptional<(typeof readingShape)[K]>;
+  },
+);
+
+const observationsSchema = z.strictObject(
+  Object.fromEntries(
+    OBSERVATION_NAMES.map((name) => [name, z.enum(observationValues(name)).optional().meta({ description: OBSERVATIONS[name].says })]),
+  ) as Record<(typeof OBSERVATION_NAMES)[number], z.ZodOptional<z.ZodEnum>>,
+);
+
+const isolation = z.strictObject({
+  points: z.array(z.string()).optional(),
+  locks: z.array(z.string()).optional(),
+  provedDeadBy: z.string().optional(),
+  tester: z.string().optional(),
+});
+
+const job = z.strictObject({
+  workOrder: z.string().optional(),
+  asset: z.string().optional(),
+  site: z.string().optional(),
+  fitter: z.string().optional(),
+  startedAt: z.string().optional(),
+  permit: z.string().optional(),
+  isolation: isolation.optional(),
+});
+
+const outcome = z.strictObject({
+  cause: safeId.optional().meta({ description: 'the confirmed cause: an id of the cause catalogue in use' }),
+  newCause: z.strictObject({ id: safeId, title: z.string().min(1) }).optional(),
+  notes: z.string().optional(),
+  fix: z.string().optional(),
+  date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'expected a date as YYYY-MM-DD').optional(),
+  recordedBy: z.string().optional(),
+  readingsAfter: readingsSchema.optional(),
+  returnedToServiceBy: z.string().optional(),
+});
+
+export const caseSchema = z
+  .strictObject({
+    format: z.literal(CASE_FORMAT),
+    id: safeId.optional(),
+    job: job.optional(),
+    machine: machineSchema,
+    symptoms: z
+      .array(z.enum(SYMPTOM_IDS))
+      .optional()
+      .meta({ description: `zero or more of: ${Object.entries(SYMPTOMS).map(([k, v]) => `${k} (${v})`).join(', ')}` }),
+    observations: observationsSchema.optional(),
+    readings: readingsSchema.optional(),
+    outcome: outcome.optional(),
+  })
+  .meta({ id: 'dc-case-1', title: 'DC machine job (dc-case/1)' });
+
+export type CaseFile = z.output<typeof caseSchema>;
+export type CaseInput = z.input<typeof caseSchema>;
+export type MachineFile = z.output<typeof machineSchema>;

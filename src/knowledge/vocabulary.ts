@@ -1,0 +1,68 @@
+/**
+ * The fixed dc-case/1 vocabulary: symptoms, observations and their answers, drives, feedback and
+ * cooling kinds. Rules, questions and case files may use only these names.
+ */
+
+export const SYMPTOMS = {
+  'reversed-rotation': 'runs the wrong way',
+  'will-not-reverse': 'does not change direction when asked to',
+  overspeed: 'runs faster than it should',
+  'speed-low': 'runs slower than it should',
+  'speed-unstable': 'speed hunts or surges',
+  sparking: 'sparking at the brushes',
+  'field-overheating': 'field coils too hot',
+  'armature-overheating': 'armature or commutator too hot',
+  'low-torque': 'cannot pull its load',
+  'will-not-start': 'does not turn when started',
+  'trips-overcurrent': 'trips on overcurrent',
+  'trips-earth-fault': 'trips on earth fault',
+  'noise-vibration': 'noisy or vibrating',
+} as const;
+export type Symptom = keyof typeof SYMPTOMS;
+export const SYMPTOM_IDS = Object.keys(SYMPTOMS) as [Symptom, ...Symptom[]];
+
+export const DRIVES = ['fixed-supply', 'controlled-converter', 'unknown'] as const;
+export const FEEDBACK = ['tacho', 'encoder', 'armature-voltage', 'none', 'unknown'] as const;
+export const COOLING = ['self-ventilated', 'separately-ventilated', 'non-ventilated', 'unknown'] as const;
+
+interface ObservationSpec {
+  says: string;
+  values: Record<string, string>;
+}
+
+/** Each observation, what it means, and the answers it takes (plus `unknown`). */
+export const OBSERVATIONS = {
+  'present-state': { says: 'what the machine is doing now', values: { running: 'running', stopped: 'stopped', tripped: 'tripped by its protection', isolated: 'isolated and locked off' } },
+  'drive-fault-kind': { says: 'what the drive or protection displays', values: { none: 'no fault shown', overcurrent: 'overcurrent', overspeed: 'overspeed', 'field-loss': 'field loss', 'earth-fault': 'earth fault', 'feedback-loss': 'speed feedback lost', overtemperature: 'overtemperature', other: 'another fault' } },
+  'recent-work': { says: 'work done on the machine or drive recently', values: { none: 'none', rewired: 'rewired or reconnected', 'brushes-replaced': 'brushes replaced', 'armature-rewound': 'armature rewound', 'commutator-machined': 'commutator machined', 'bearings-replaced': 'bearings replaced', 'drive-replaced': 'drive replaced or reprogrammed', other: 'other work' } },
+  'leads-disturbed': { says: 'which terminations were re-made', values: { none: 'none', armature: 'armature (A1/A2)', 'shunt-field': 'shunt field (F1/F2)', 'series-field': 'series field (S1/S2)', interpole: 'interpole', tacho: 'tacho or encoder', several: 'several' } },
+  'load-coupled': { says: 'the driven load is mechanically connected', values: { yes: 'yes', no: 'no' } },
+  'load-level': { says: 'how much load is on the machine', values: { none: 'none', light: 'light', normal: 'normal', heavy: 'heavy' } },
+  'speed-with-load': { says: 'how speed changes as load comes on', values: { 'falls-slightly': 'falls slightly', 'falls-strongly': 'falls strongly', rises: 'rises', 'no-change': 'does not change' } },
+  'supply-reversed': { says: 'the supply polarity was reversed to reverse the machine', values: { yes: 'yes', no: 'no' } },
+  'direction-command': { says: "the drive's direction input or reference polarity", values: { normal: 'normal', reversed: 'reversed' } },
+  'sparking-where': { says: 'where the sparking is', values: { 'all-brushes': 'all brushes', 'some-brushes': 'some brushes', 'one-spot-on-commutator': 'one spot on the commutator' } },
+  'sparking-with-load': { says: 'how sparking changes with load', values: { 'grows-with-load': 'grows with load', constant: 'constant', 'only-at-start': 'only at start' } },
+  'commutator-surface': { says: 'how the commutator looks', values: { 'even-film': 'even brown film', 'burnt-bars-regular-spacing': 'burnt bars at a regular spacing', 'grooved-or-rough': 'grooved or rough', 'raised-or-low-bars': 'raised or low bars', 'high-mica': 'high mica', 'blackened-patches': 'blackened patches' } },
+  'brushes-free': { says: 'brushes slide freely in their holders', values: { yes: 'yes', no: 'no' } },
+  'brush-grade-changed': { says: 'the brush grade was changed', values: { yes: 'yes', no: 'no' } },
+  'neutral-marks-aligned': { says: 'brush-gear position marks line up', values: { yes: 'yes', no: 'no' } },
+  'bar-to-bar-test': { says: 'bar-to-bar resistance test result', values: { even: 'even', 'one-high': 'one reading high', 'one-low': 'one reading low' } },
+  'field-coils-equal': { says: 'voltage drops across the field coils agree', values: { yes: 'yes', no: 'no' } },
+  'hot-while-stopped': { says: 'the field got hot standing energised with the machine stopped', values: { yes: 'yes', no: 'no' } },
+  'cooling-air': { says: 'cooling air flow', values: { normal: 'normal', low: 'low', none: 'none' } },
+  'turns-freely': { says: 'isolated and uncoupled, the shaft turns freely by hand', values: { yes: 'yes', no: 'no' } },
+  'bearing-noise': { says: 'bearing noise', values: { yes: 'yes', no: 'no' } },
+  'tacho-signal': { says: 'the tacho or encoder signal', values: { 'follows-speed': 'follows speed', absent: 'absent', reversed: 'reversed' } },
+  'current-at-limit': { says: 'the drive shows it is holding current at its limit', values: { yes: 'yes', no: 'no' } },
+  'current-ripple': { says: 'ripple on the armature current or voltage', values: { normal: 'normal', high: 'high, or a missing pulse' } },
+  'trips-when': { says: 'when it trips', values: { 'at-start': 'at start', 'under-load': 'under load', random: 'at random' } },
+} as const satisfies Record<string, ObservationSpec>;
+
+export type ObservationName = keyof typeof OBSERVATIONS;
+export const OBSERVATION_NAMES = Object.keys(OBSERVATIONS) as [ObservationName, ...ObservationName[]];
+
+/** Answers an observation takes, `unknown` included. */
+export function observationValues(name: ObservationName): [string, ...string[]] {
+  return ['unknown', ...Object.keys(OBSERVATIONS[name].values)];
+}

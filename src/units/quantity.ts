@@ -1,0 +1,143 @@
+/**
+ * The one adapter from what a fitter types ("14,5 V", "1450 r/min", "40 C") to a plain
+ * number in the unit a field declares. mathjs lives here and nowhere else; user text is
+ * only ever given to `unit()`, never to `evaluate` or `parse`.
+ */
+import { create, unitDependencies, createUnitDependencies, type FactoryFunctionMap, type Unit } from 'mathjs';
+
+// The two factories are always defined; mathjs's typings mark every dependency map optional.
+const math = create({ unitDependencies, createUnitDependencies } as FactoryFunctionMap, {});
+// rpm as revolutions per minute, 1/time, so it converts to Hz (rev/s) as well.
+math.createUnit('rpm', '1 / min');
+math.createUnit('megohm', '1 Mohm');
+
+/** What a field holds, with its default unit and the range a real DC machine job can show. */
+export const DIMENSIONS = {
+  voltage: { unit: 'V', min: 0, max: 2000 },
+  signedVoltage: { unit: 'V', min: -2000, max: 2000 },
+  current: { unit: 'A', min: 0, max: 20000 },
+  resistance: { unit: 'ohm', min: 0, max: 1e6 },
+  insulation: { unit: 'Mohm', min: 0, max: 1e7 },
+  power: { unit: 'W', min: 0, max: 2e7 },
+  speed: { unit: 'rpm', min: 0, max: 20000 },
+  temperature: { unit: 'degC', min: -50, max: 400 },
+  pressure: { unit: 'kPa', min: 0, max: 500 },
+  length: { unit: 'mm', min: 0, max: 1000 },
+} as const;
+
+export type Dimension = keyof typeof DIMENSIONS;
+
+export type QuantityError =
+  | { code: 'empty' }
+  | { code: 'no-number'; text: string }
+  | { code: 'not-a-quantity'; text: string }
+  | { code: 'wrong-dimension'; text: string; expected: Dimension }
+  | { code: 'negative'; text: string; expected: Dimension }
+  | { code: 'out-of-range'; text: string; expected: Dimension; value: number; min: number; max: number };
+
+export type QuantityResult = { ok: true; value: number } | { ok: false; error: QuantityError };
+
+const MAX_TEXT = 60;
+
+/** Rewrites the spellings fitters use into what mathjs reads; `dimension` resolves "40 C". */
+export function normalizeQuantityText(text: string, dimension: Dimension): string {
+  let s = text.trim().replace(/\s+/g, ' ');
+  s = s.replace(/^([+-]?\d+),(\d+)/, '$1.$2'); // decimal comma: 14,5 V
+  s = s.replace(/(\d)\s*(?=[^\d\s.eE+-])/, '$1 '); // 1.2A -> 1.2 A
+  s = s.replace(/\s*([Mm]egohms?|[Mm]egaohms?|MΩ)$/u, ' Mohm');
+  s = s.replace(/\s*(k|M|G|m|u|µ)?\s*(Ω|Ohms?|ohms?)$/u, (_m, prefix: string | undefined) => ` ${prefix === 'µ' ? 'u' : (prefix ?? '')}ohm`);
+  s = s.replace(/\s*°\s*([CF])$/i, (_m, l: string) => ` deg${l.toUpperCase()}`);
+  s = s.replace(/\s*(r\/min|rev\/min|revs?\/min|min-1|min⁻¹|1\/min|RPM|rpm|Rpm)$/, ' rpm');
+  s = s.replace(/\s*(N\s*[·.*]?\s*m|Nm)$/, ' N m');
+  const lower = s.match(/^(\S+) (\S+)$/);
+  if (lower) {
+    const [, num, u] = lower as unknown as [string, string, string];
+    const fixed = lowercaseUnit(u, dimension);
+    if (fixed !== u) s = `${num} ${fixed}`;
+  }
+  return s;
+}
+
+/** Units typed in lower case where no other reading makes sense for the field. */
+function lowercaseUnit(u: string, dimension: Dimension): string {
+  const table: Partial<Record<Dimension, Record<string, string>>> = {
+    voltage: { v: 'V', kv: 'kV', mv: 'mV' },
+    signedVoltage: { v: 'V', kv: 'kV', mv: 'mV' },
+    current: { a: 'A', ma: 'mA', ka: 'kA', amps: 'A', amp: 'A' },
+    power: { w: 'W', kw: 'kW', mw: 'MW', KW: 'kW' },
+    temperature: { c: 'degC', C: 'degC', f: 'degF', F: 'degF', degc: 'degC', degf: 'degF' },
+    speed: { hz: 'Hz' },
+    pressure: { kpa: 'kPa' },
+  };
+  return table[dimension]?.[u] ?? u;
+}
+
+/**
+ * Parses a quantity as typed (or a bare number in the dimension's default unit).
+ * @example parseQuantity('14,5 V', 'voltage') // { ok: true, value: 14.5 }
+ * @example parseQuantity('5 A', 'voltage')    // { ok: false, error: { code: 'wrong-dimension', … } }
+ */
+export function parseQuantity(input: string | number, dimension: Dimension): QuantityResult {
+  const spec = DIMENSIONS[dimension];
+  if (typeof input === 'number') return checkRange(input, String(input), dimension);
+  const text = input.trim();
+  if (text === '') return fail({ code: 'empty' });
+  if (text.length > MAX_TEXT) return fail({ code: 'not-a-quantity', text: text.slice(0, MAX_TEXT) + '…' });
+  const normalized = normalizeQuantityText(text, dimension);
+  if (/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i.test(normalized)) {
+    return checkRange(Number(normalized), text, dimension);
+  }
+  // A number followed by one unit expression: anything else (sums, functions, two numbers) is refused.
+  if (!/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)? [A-Za-z][A-Za-z0-9 /^*]*$/.test(normalized)) {
+    return fail(/^\D*$/.test(normalized) ? { code: 'no-number', text } : { code: 'not-a-quantity', text });
+  }
+  let parsed: Unit;
+  try {
+    parsed = math.unit(normalized) as Unit;
+  } catch {
+    return fail({ code: 'not-a-quantity', text });
+  }
+  if (parsed.value === null) return fail({ code: 'no-number', text });
+  if (!parsed.equalBase(math.unit(spec.unit))) return fail({ code: 'wrong-dimension', text, expected: dimension });
+  return checkRange(parsed.toNumber(spec.unit), text, dimension);
+}
+
+function checkRange(value: number, text: string, dimension: Dimension): QuantityResult {
+  const { min, max } = DIMENSIONS[dimension];
+  if (!Number.isFinite(value)) return fail({ code: 'not-a-quantity', text });
+  if (value < 0 && min === 0) return fail({ code: 'negative', text, expected: dimension });
+  if (value < min || value > max) return fail({ code: 'out-of-range', text, expected: dimension, value, min, max });
+  return { ok: true, value: roundNoise(value) };
+}
+
+/** Drops float noise from unit conversion (350 mA -> 0.35000000000000003). */
+function roundNoise(x: number): number {
+  return x === 0 ? 0 : Number(x.toPrecision(12));
+}
+
+function fail(error: QuantityError): QuantityResult {
+  return { ok: false, error };
+}
+
+/** One line a fitter can act on. */
+export function describeQuantityError(e: QuantityError): string {
+  const unit = (d: Dimension) => DIMENSIONS[d].unit;
+  switch (e.code) {
+    case 'empty':
+      return 'empty value: give a number with a unit, or leave the field out';
+    case 'no-number':
+      return `"${e.text}" has no number in front of the unit`;
+    case 'not-a-quantity':
+      return `"${e.text}" is not a number with one unit (expected e.g. "14.5 V"; sums and formulas are not read)`;
+    case 'wrong-dimension':
+      return `"${e.text}" is not a ${dimensionName(e.expected)} (expected a value in ${unit(e.expected)})`;
+    case 'negative':
+      return `"${e.text}" is negative; a ${dimensionName(e.expected)} here is a magnitude`;
+    case 'out-of-range':
+      return `"${e.text}" is outside the plausible range for a ${dimensionName(e.expected)} (${e.min} to ${e.max} ${unit(e.expected)})`;
+  }
+}
+
+function dimensionName(d: Dimension): string {
+  return d === 'signedVoltage' ? 'voltage' : d === 'insulation' ? 'insulation resistance' : d;
+}

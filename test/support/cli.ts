@@ -1,0 +1,22 @@
+/** Runs the built CLI (npm test builds it first) and captures what it printed. */
+import { spawnSync } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
+
+export const ROOT = fileURLToPath(new URL('../..', import.meta.url));
+export const CLI = `${ROOT}dist/cli.mjs`;
+
+export interface Run {
+  code: number | null;
+  stdout: string;
+  stderr: string;
+}
+
+export function runCli(args: string[], opts: { cwd?: string; input?: string; env?: Record<string, string> } = {}): Run {
+  const r = spawnSync(process.execPath, [CLI, ...args], {
+    cwd: opts.cwd ?? ROOT,
+    input: opts.input ?? '',
+    encoding: 'utf8',
+    env: { ...process.env, NO_COLOR: '1', ...opts.env },
+  });
+  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+}
