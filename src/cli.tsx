@@ -3,11 +3,24 @@
  * coded issues; only this file prints or exits.
  */
 import { parseArgs } from 'node:util';
+import { readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { computeExpectations } from './model/expected.js';
 import { loadCase, modelInput } from './knowledge/load-case.js';
+import { loadRuleBase, type RuleBase } from './knowledge/load-rules.js';
 import { formatIssues, type Issue } from './knowledge/result.js';
+import { diagnose } from './engine/diagnose.js';
+import { buildEngine, RuleCycleError } from './engine/run-rules.js';
+import { checkCases } from './engine/check-cases.js';
 import { formatExpectation } from './shell/format-expect.js';
+import { formatDiagnosis } from './shell/format-diagnosis.js';
+import { formatCaseCheck } from './shell/format-case-check.js';
 import { USAGE } from './shell/help.js';
+
+/** The built-in rule folder ships beside the bundle (dist/../rules). */
+const BUILT_IN_RULES = fileURLToPath(new URL('../rules/', import.meta.url));
+const BUILT_IN_CASES = fileURLToPath(new URL('../cases/', import.meta.url));
 
 declare const DCTRIAGE_VERSION: string;
 
@@ -52,6 +65,41 @@ async function main(argv: string[]): Promise<number> {
       out(opts.json ? JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2) : formatExpectation(e));
       return 0;
     }
+    case 'diagnose': {
+      const file = rest[0];
+      if (!file) throw new UsageError('diagnose needs a case file: dctriage diagnose FILE');
+      const base = loadRuleBase(opts.rules ?? BUILT_IN_RULES);
+      if (!base.ok) return fail(base.issues);
+      const c = loadCase(file, causeIdsOf(base.value));
+      if (!c.ok) return fail(c.issues);
+      const d = await diagnose(c.value, base.value, buildEngine(base.value));
+      if (opts.json) {
+        out(JSON.stringify({
+          warnings: d.warnings,
+          causes: d.causes.map(({ id, title, score, evidence }) => ({ id, title, score, evidence: evidence.map(({ rule, says }) => ({ rule, says })) })),
+          checks: d.checks.map(({ id, title, state, causes, minutes }) => ({ id, title, state, causes, minutes })),
+          isolation: d.isolation,
+          quantities: d.expectation.quantities,
+        }, null, 2));
+      } else out(formatDiagnosis(d));
+      return 0;
+    }
+    case 'cases': {
+      if (rest[0] !== 'check') throw new UsageError('cases takes a subcommand: dctriage cases check [DIR]');
+      const dir = rest[1] ?? BUILT_IN_CASES;
+      const base = loadRuleBase(opts.rules ?? BUILT_IN_RULES);
+      if (!base.ok) return fail(base.issues);
+      let files: string[];
+      try {
+        files = readdirSync(dir).filter((f) => f.endsWith('.json')).sort().map((f) => join(dir, f));
+      } catch {
+        return fail([{ code: 'unreadable', file: dir, path: '', message: 'cases folder cannot be read' }]);
+      }
+      const report = await checkCases(files, base.value);
+      if (!report.ok) return fail(report.issues);
+      out(opts.json ? JSON.stringify(report.value, null, 2) : formatCaseCheck(report.value));
+      return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
+    }
     case undefined:
       out(USAGE);
       return 0;
@@ -60,12 +108,19 @@ async function main(argv: string[]): Promise<number> {
   }
 }
 
+function causeIdsOf(base: RuleBase): Set<string> {
+  return new Set(base.causes.map((c) => c.id));
+}
+
 main(process.argv.slice(2)).then(
   (code) => {
     process.exitCode = code;
   },
   (e: unknown) => {
-    if (e instanceof UsageError) {
+    if (e instanceof RuleCycleError) {
+      process.stderr.write(`dctriage: ${e.message}\n`);
+      process.exitCode = 2;
+    } else if (e instanceof UsageError) {
       process.stderr.write(`dctriage: ${e.message}\nRun "dctriage --help" for usage.\n`);
       process.exitCode = 2;
     } else {

@@ -4,6 +4,7 @@
  * computed and which value would allow it.
  */
 import { CONNECTION_TRAITS, type MachineData, type Readings } from './machine.js';
+import type { QuantityName } from './quantity-names.js';
 import { describeCurve, fluxPerUnit } from './magnetization.js';
 import { resistanceAt, windingTemperature } from './resistance.js';
 import { CLASS_TEMPERATURE_C, windingTemperatureLimit, workingTemperature } from './thermal.js';
@@ -26,7 +27,7 @@ export interface Quantity {
 }
 
 export interface Missing {
-  quantity: string;
+  quantity: QuantityName;
   /** Case-file values that, all given, would let the quantity be computed ("a or b" where either will do). */
   needs: string[];
 }
@@ -37,7 +38,7 @@ export interface Finding {
 }
 
 export interface Expectation {
-  quantities: Record<string, Quantity>;
+  quantities: Partial<Record<QuantityName, Quantity>>;
   missing: Missing[];
   assumptions: string[];
   findings: Finding[];
@@ -78,7 +79,7 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
   const traits = CONNECTION_TRAITS[machine.connection];
   const np = machine.nameplate ?? {};
   const res = machine.resistances ?? {};
-  const add = (name: string, q: Omit<Quantity, 'ratio' | 'measured' | 'basis'> & { measured?: number | undefined; estimated?: boolean }) => {
+  const add = (name: QuantityName, q: Omit<Quantity, 'ratio' | 'measured' | 'basis'> & { measured?: number | undefined; estimated?: boolean }) => {
     const measured = q.measured ?? null;
     out.quantities[name] = {
       value: round(q.value),
@@ -89,7 +90,7 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
       formula: q.formula,
     };
   };
-  const miss = (quantity: string, ...needs: string[]) => out.missing.push({ quantity, needs });
+  const miss = (quantity: QuantityName, ...needs: string[]) => out.missing.push({ quantity, needs });
   const assume = (text: string) => out.assumptions.push(text);
 
   if (machine.connection === 'compound') assume('compound mode unknown: modelled as cumulative compound');
@@ -254,7 +255,7 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
   const vm = readings.armatureVoltage;
 
   // --- speed -------------------------------------------------------------------------------
-  const speedAt = (fieldA: number | undefined, label: string, name: string, measured: number | undefined) => {
+  const speedAt = (fieldA: number | undefined, label: string, name: QuantityName, measured: number | undefined) => {
     if (kPhiRated === undefined || vm === undefined || ia === undefined || ratedIa === undefined) {
       const needs: string[] = [];
       if (kPhiRated === undefined) needs.push('the machine constant (see machineConstant)');
@@ -318,7 +319,7 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
 
   // --- winding temperature by resistance ---------------------------------------------------
   const cls = np.insulationClass;
-  const windingTemp = (name: string, hot: number | undefined, cold: number | undefined, limitName: string, label: string, lowMeans: string) => {
+  const windingTemp = (name: QuantityName, hot: number | undefined, cold: number | undefined, limitName: QuantityName, label: string, lowMeans: string) => {
     if (hot === undefined) return;
     if (cold === undefined || res.at === undefined) {
       miss(name, cold === undefined ? `machine.resistances.${label === 'armature' ? 'armature' : 'shuntField'}` : 'machine.resistances.at');

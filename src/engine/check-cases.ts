@@ -1,0 +1,48 @@
+/** Runs every recorded case whose outcome names a cause and reports where that cause ranked. */
+import { loadCase } from '../knowledge/load-case.js';
+import type { RuleBase } from '../knowledge/load-rules.js';
+import { failed, ok, type Issue, type Result } from '../knowledge/result.js';
+import { diagnose } from './diagnose.js';
+import { buildEngine } from './run-rules.js';
+
+export interface CaseRank {
+  id: string;
+  file: string;
+  expected: string;
+  /** 1-based rank of the confirmed cause; 0 when it is not ranked at all. */
+  rank: number;
+  ranked: string[];
+}
+
+export interface CaseCheckReport {
+  total: number;
+  top1: number;
+  top3: number;
+  cases: CaseRank[];
+}
+
+export async function checkCases(files: string[], base: RuleBase): Promise<Result<CaseCheckReport>> {
+  const engine = buildEngine(base);
+  const causeIds = new Set(base.causes.map((c) => c.id));
+  const issues: Issue[] = [];
+  const cases: CaseRank[] = [];
+  for (const file of files) {
+    const c = loadCase(file, causeIds);
+    if (!c.ok) {
+      issues.push(...c.issues);
+      continue;
+    }
+    const expected = c.value.outcome?.cause;
+    if (expected === undefined) continue;
+    const d = await diagnose(c.value, base, engine);
+    const ranked = d.causes.map((x) => x.id);
+    cases.push({ id: c.value.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5) });
+  }
+  if (issues.length) return failed(...issues);
+  return ok({
+    total: cases.length,
+    top1: cases.filter((c) => c.rank === 1).length,
+    top3: cases.filter((c) => c.rank >= 1 && c.rank <= 3).length,
+    cases,
+  });
+}

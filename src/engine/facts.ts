@@ -1,0 +1,36 @@
+/**
+ * The facts of one job as the rules see them: machine kind, symptoms, observations (unknown
+ * answers left out), findings, and the model's quantities as three maps (value, measured,
+ * ratio), all plain numbers in the units the model declares.
+ */
+import type { CaseFile } from '../knowledge/case-schema.js';
+import { CONNECTION_TRAITS } from '../model/machine.js';
+import type { Expectation } from '../model/expected.js';
+
+export type Facts = Record<string, unknown>;
+
+export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations'>, e: Expectation): Facts {
+  const traits = CONNECTION_TRAITS[c.machine.connection];
+  const facts: Facts = {
+    connection: c.machine.connection,
+    drive: c.machine.drive ?? 'unknown',
+    feedback: c.machine.feedback ?? 'unknown',
+    cooling: c.machine.cooling ?? 'unknown',
+    hasShuntField: traits.shuntField,
+    hasSeriesField: traits.seriesField,
+    symptoms: c.symptoms ?? [],
+    findings: e.findings.map((f) => f.code),
+    value: {},
+    measured: {},
+    ratio: {},
+  };
+  for (const [name, q] of Object.entries(e.quantities)) {
+    (facts.value as Record<string, number>)[name] = q.value;
+    if (q.measured !== null) (facts.measured as Record<string, number>)[name] = q.measured;
+    if (q.ratio !== null) (facts.ratio as Record<string, number>)[name] = q.ratio;
+  }
+  for (const [name, answer] of Object.entries(c.observations ?? {})) {
+    if (answer !== undefined && answer !== 'unknown') facts[name] = answer;
+  }
+  return facts;
+}

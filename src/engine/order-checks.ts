@@ -1,0 +1,49 @@
+/**
+ * Orders the checks that confirm or clear the ranked causes.
+ *
+ * Safety first: when a fault trip or a runaway warning applies, the machine is not to be
+ * energised again until the fault is cleared, so isolated checks come first, the insulation and
+ * winding tests that clear the fault at their head, and nothing energised before them.
+ * Otherwise the observe and live-test checks come before the isolated ones, so the machine is
+ * isolated once.
+ *
+ * Within a group, a check is worth what it tells per minute: the chance it confirms one of its
+ * causes plus the binary entropy of that chance (how evenly it splits the likely causes), over
+ * its minutes.
+ */
+import type { Check } from '../knowledge/rulebase-schema.js';
+
+export interface RankedCause {
+  id: string;
+  /** Share of the summed positive scores: a rough probability among the ranked causes. */
+  share: number;
+  checks: string[];
+}
+
+export interface OrderedCheck {
+  check: Check;
+  causes: string[];
+}
+
+const entropy = (p: number) => (p <= 0 || p >= 1 ? 0 : -(p * Math.log2(p) + (1 - p) * Math.log2(1 - p)));
+
+export function orderChecks(ranked: RankedCause[], checks: Check[], safetyFirst: boolean): OrderedCheck[] {
+  const byId = new Map(checks.map((c) => [c.id, c]));
+  const causesOf = new Map<string, string[]>();
+  for (const cause of ranked) {
+    for (const id of cause.checks) causesOf.set(id, [...(causesOf.get(id) ?? []), cause.id]);
+  }
+  const share = new Map(ranked.map((c) => [c.id, c.share]));
+  const worth = (id: string) => {
+    const p = Math.min(1, (causesOf.get(id) ?? []).reduce((s, c) => s + (share.get(c) ?? 0), 0));
+    return (p + entropy(p)) / byId.get(id)!.minutes;
+  };
+  const group = (c: Check): number => {
+    if (safetyFirst) return c.state === 'isolated' ? (c.clearsFaultBeforeEnergising ? 0 : 1) : 2;
+    return c.state === 'isolated' ? 1 : 0;
+  };
+  return [...causesOf.keys()]
+    .filter((id) => byId.has(id))
+    .map((id) => ({ check: byId.get(id)!, causes: causesOf.get(id)! }))
+    .sort((a, b) => group(a.check) - group(b.check) || worth(b.check.id) - worth(a.check.id) || a.check.id.localeCompare(b.check.id));
+}

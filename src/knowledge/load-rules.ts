@@ -1,0 +1,236 @@
+/**
+ * Loads a rule folder: every *.json directly in it is validated; drafts/ is not loaded.
+ * Cross-references (causes, checks, hazards, warnings, facts, observation answers, quantity
+ * names, shared conditions) are checked here so the engine can trust what it is given.
+ */
+import { readdirSync } from 'node:fs';
+import type * as z from 'zod';
+import { join } from 'node:path';
+import { QUANTITY_NAMES } from '../model/quantity-names.js';
+import { readingsSchema } from './case-schema.js';
+import { readJson, validate } from './read-json.js';
+import { failed, ok, type Issue, type Result } from './result.js';
+import {
+  CATALOGUE_FILES,
+  causesFile,
+  checksFile,
+  questionsFile,
+  ruleFile,
+  safetyFile,
+  sharedConditionsFile,
+  type Cause,
+  type Check,
+  type Condition,
+  type Question,
+  type Rule,
+  type Safety,
+} from './rulebase-schema.js';
+import { OBSERVATIONS, SYMPTOM_IDS, type ObservationName } from './vocabulary.js';
+
+export interface LoadedRule {
+  rule: Rule;
+  file: string;
+  /** Where in its file, for messages: "rules[3]". */
+  at: string;
+}
+
+export interface RuleBase {
+  dir: string;
+  causes: Cause[];
+  checks: Check[];
+  questions: Question[];
+  safety: Safety;
+  conditions: Record<string, Condition>;
+  rules: LoadedRule[];
+}
+
+/** Facts every job has (some may be unknown), besides observations and derived facts. */
+export const STATIC_FACTS = {
+  connection: 'string',
+  drive: 'string',
+  feedback: 'string',
+  cooling: 'string',
+  hasShuntField: 'boolean',
+  hasSeriesField: 'boolean',
+  symptoms: 'list',
+  findings: 'list',
+  ratio: 'quantities',
+  value: 'quantities',
+  measured: 'quantities',
+} as const;
+
+export function loadRuleBase(dir: string): Result<RuleBase> {
+  let names: string[];
+  try {
+    names = readdirSync(dir, { withFileTypes: true })
+      .filter((d) => d.isFile() && d.name.endsWith('.json'))
+      .map((d) => d.name)
+      .sort();
+  } catch {
+    return failed({ code: 'unreadable', file: dir, path: '', message: 'rule folder cannot be read' });
+  }
+  const issues: Issue[] = [];
+  const read = <S extends z.ZodType>(name: string, schema: S): z.output<S> | undefined => {
+    const file = join(dir, name);
+    const raw = readJson(file);
+    if (!raw.ok) return void issues.push(...raw.issues);
+    const v = validate(file, raw.value, schema);
+    if (!v.ok) return void issues.push(...v.issues);
+    return v.value;
+  };
+  for (const required of Object.keys(CATALOGUE_FILES)) {
+    if (!names.includes(required)) issues.push({ code: 'rule-base', file: join(dir, required), path: '', message: 'missing: every rule folder has this file' });
+  }
+  if (issues.length) return failed(...issues);
+
+  const causes = read('causes.json', causesFile)?.causes;
+  const checks = read('checks.json', checksFile)?.checks;
+  const questions = read('questions.json', questionsFile)?.questions;
+  const safety = read('safety.json', safetyFile);
+  const conditions = read('conditions.json', sharedConditionsFile)?.conditions;
+  const rules: LoadedRule[] = [];
+  for (const name of names.filter((n) => !(n in CATALOGUE_FILES))) {
+    const f = read(name, ruleFile);
+    f?.rules.forEach((rule, k) => rules.push({ rule, file: join(dir, name), at: `rules[${k}]` }));
+  }
+  if (issues.length || !causes || !checks || !questions || !safety || !conditions) return failed(...issues);
+  const base: RuleBase = { dir, causes, checks, questions, safety, conditions, rules };
+  const cross = crossCheck(base);
+  return cross.length ? failed(...cross) : ok(base);
+}
+
+/** Everything one file's schema cannot see: references between files. */
+export function crossCheck(base: RuleBase): Issue[] {
+  const issues: Issue[] = [];
+  const f = (name: string) => join(base.dir, name);
+  const causeIds = new Set(base.causes.map((c) => c.id));
+  const checkIds = new Set(base.checks.map((c) => c.id));
+  const hazardIds = new Set(base.safety.hazards.map((h) => h.id));
+  const warningIds = new Set(base.safety.warnings.map((w) => w.id));
+  const derived = new Set(base.rules.flatMap(({ rule }) => (rule.kind === 'derive' ? [rule.derive] : [])));
+
+  duplicates(base.causes.map((c) => c.id)).forEach((d) => issues.push(issue(f('causes.json'), 'causes', `cause id "${d}" appears twice`)));
+  duplicates(base.checks.map((c) => c.id)).forEach((d) => issues.push(issue(f('checks.json'), 'checks', `check id "${d}" appears twice`)));
+  duplicates(base.questions.map((q) => q.id)).forEach((d) => issues.push(issue(f('questions.json'), 'questions', `question id "${d}" appears twice`)));
+  base.causes.forEach((c, k) =>
+    c.checks.forEach((ch, j) => {
+      if (!checkIds.has(ch)) issues.push(issue(f('causes.json'), `causes[${k}].checks[${j}]`, `cause "${c.id}" names check "${ch}", which checks.json does not define`));
+    }),
+  );
+  base.checks.forEach((c, k) =>
+    c.hazards.forEach((h, j) => {
+      if (!hazardIds.has(h)) issues.push(issue(f('checks.json'), `checks[${k}].hazards[${j}]`, `check "${c.id}" names hazard "${h}", which safety.json does not define`));
+    }),
+  );
+  const seenRuleNames = new Map<string, string>();
+  for (const { rule, file, at } of base.rules) {
+    const where = `${at} (${rule.name})`;
+    const earlier = seenRuleNames.get(rule.name);
+    if (earlier) issues.push(issue(file, `${where}.name`, `rule name "${rule.name}" is also used in ${earlier}`));
+    seenRuleNames.set(rule.name, file);
+    if ((rule.kind === 'evidence' || rule.kind === 'rule-out') && !causeIds.has(rule.cause)) {
+      issues.push(issue(file, `${where}.cause`, `"${rule.cause}" is not a cause in causes.json`));
+    }
+    if (rule.kind === 'warning' && !warningIds.has(rule.warning)) issues.push(issue(file, `${where}.warning`, `"${rule.warning}" is not a warning in safety.json`));
+    issues.push(...checkCondition(rule.conditions, file, `${where}.conditions`, derived, base.conditions));
+  }
+  for (const [name, cond] of Object.entries(base.conditions)) issues.push(...checkCondition(cond, f('conditions.json'), `conditions.${name}`, derived, base.conditions));
+  base.questions.forEach((q, k) => {
+    const where = `questions[${k}] (${q.id})`;
+    if (q.answer.kind === 'choice' && !(q.answer.observation in OBSERVATIONS)) issues.push(issue(f('questions.json'), `${where}.answer.observation`, `"${q.answer.observation}" is not an observation of dc-case/1`));
+    if (q.answer.kind === 'quantity' && !(q.answer.reading in readingsSchema.shape)) issues.push(issue(f('questions.json'), `${where}.answer.reading`, `"${q.answer.reading}" is not a reading of dc-case/1`));
+    if (q.askWhen) issues.push(...checkCondition(q.askWhen, f('questions.json'), `${where}.askWhen`, derived, base.conditions));
+  });
+  const cycle = findDeriveCycle(base);
+  if (cycle) issues.push({ code: 'cycle', file: cycle.file, path: cycle.at, message: `derived facts depend on each other in a cycle: ${cycle.path.join(' → ')}` });
+  return issues;
+}
+
+function checkCondition(c: Condition, file: string, path: string, derived: Set<string>, shared: Record<string, Condition>): Issue[] {
+  if ('all' in c) return c.all.flatMap((x, k) => checkCondition(x, file, `${path}.all[${k}]`, derived, shared));
+  if ('any' in c) return c.any.flatMap((x, k) => checkCondition(x, file, `${path}.any[${k}]`, derived, shared));
+  if ('not' in c) return checkCondition(c.not, file, `${path}.not`, derived, shared);
+  if ('condition' in c) return c.condition in shared ? [] : [issue(file, `${path}.condition`, `no shared condition "${c.condition}" in conditions.json`)];
+  const out: Issue[] = [];
+  const kind = factKind(c.fact, derived);
+  if (kind === undefined) return [issue(file, `${path}.fact`, `unknown fact "${c.fact}": not an observation, a derived fact or one of ${Object.keys(STATIC_FACTS).join(', ')}`)];
+  if (kind === 'quantities') {
+    const q = c.path?.slice(2);
+    if (q === undefined) out.push(issue(file, `${path}.path`, `fact "${c.fact}" needs a path naming a quantity, e.g. "$.speed"`));
+    else if (!(QUANTITY_NAMES as string[]).includes(q)) out.push(issue(file, `${path}.path`, `"${q}" is not a quantity the model computes`));
+  }
+  if (typeof c.value === 'object' && !Array.isArray(c.value)) {
+    const refKind = factKind(c.value.fact, derived);
+    if (refKind === undefined) out.push(issue(file, `${path}.value.fact`, `unknown fact "${c.value.fact}"`));
+    if (refKind === 'quantities' && !(QUANTITY_NAMES as string[]).includes(c.value.path?.slice(2) ?? '')) out.push(issue(file, `${path}.value.path`, `"${c.value.path}" does not name a quantity the model computes`));
+  }
+  if (kind === 'observation') {
+    const allowed = Object.keys(OBSERVATIONS[c.fact as ObservationName].values);
+    const given = Array.isArray(c.value) ? c.value : [c.value];
+    for (const v of given) if (typeof v !== 'string' || !allowed.includes(v)) out.push(issue(file, `${path}.value`, `${JSON.stringify(v)} is not an answer of "${c.fact}" (${allowed.join(', ')})`));
+  }
+  if (c.fact === 'symptoms' && typeof c.value === 'string' && !(SYMPTOM_IDS as string[]).includes(c.value)) {
+    out.push(issue(file, `${path}.value`, `"${c.value}" is not a symptom of dc-case/1`));
+  }
+  return out;
+}
+
+function factKind(fact: string, derived: Set<string>): 'observation' | 'derived' | (typeof STATIC_FACTS)[keyof typeof STATIC_FACTS] | undefined {
+  if (fact in STATIC_FACTS) return STATIC_FACTS[fact as keyof typeof STATIC_FACTS];
+  if (fact in OBSERVATIONS) return 'observation';
+  if (derived.has(fact)) return 'derived';
+  return undefined;
+}
+
+/** Facts a condition reads, shared conditions expanded. */
+export function factsRead(c: Condition, shared: Record<string, Condition>, seen = new Set<string>()): string[] {
+  if ('all' in c) return c.all.flatMap((x) => factsRead(x, shared, seen));
+  if ('any' in c) return c.any.flatMap((x) => factsRead(x, shared, seen));
+  if ('not' in c) return factsRead(c.not, shared, seen);
+  if ('condition' in c) {
+    if (seen.has(c.condition) || !shared[c.condition]) return [];
+    seen.add(c.condition);
+    return factsRead(shared[c.condition]!, shared, seen);
+  }
+  const ref = typeof c.value === 'object' && !Array.isArray(c.value) ? [c.value.fact] : [];
+  return [c.fact, ...ref];
+}
+
+function findDeriveCycle(base: RuleBase): { path: string[]; file: string; at: string } | undefined {
+  const edges = new Map<string, { to: string; file: string; at: string }[]>();
+  for (const { rule, file, at } of base.rules) {
+    if (rule.kind !== 'derive') continue;
+    for (const from of factsRead(rule.conditions, base.conditions)) {
+      if (!edges.has(from)) edges.set(from, []);
+      edges.get(from)!.push({ to: rule.derive, file, at: `${at} (${rule.name})` });
+    }
+  }
+  const state = new Map<string, 'open' | 'done'>();
+  const visit = (node: string, path: string[]): { path: string[]; file: string; at: string } | undefined => {
+    state.set(node, 'open');
+    for (const e of edges.get(node) ?? []) {
+      if (state.get(e.to) === 'open') return { path: [...path, node, e.to].slice(path.indexOf(e.to) >= 0 ? path.indexOf(e.to) : 0), file: e.file, at: e.at };
+      if (!state.has(e.to)) {
+        const found = visit(e.to, [...path, node]);
+        if (found) return found;
+      }
+    }
+    state.set(node, 'done');
+    return undefined;
+  };
+  for (const node of [...edges.keys()].sort()) {
+    if (!state.has(node)) {
+      const found = visit(node, []);
+      if (found) return found;
+    }
+  }
+  return undefined;
+}
+
+function duplicates(ids: string[]): string[] {
+  return [...new Set(ids.filter((x, k) => ids.indexOf(x) !== k))];
+}
+
+function issue(file: string, path: string, message: string): Issue {
+  return { code: 'rule-base', file, path, message };
+}

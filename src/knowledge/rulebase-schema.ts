@@ -1,0 +1,143 @@
+/**
+ * Schemas of the rule folder: the cause catalogue, checks, questions, safety content, shared
+ * conditions and the rule files of each fault family. All of it is data; nothing in it runs.
+ */
+import * as z from 'zod';
+import { CONNECTIONS } from '../model/machine.js';
+import { DRIVES, FEEDBACK } from './vocabulary.js';
+
+const id = z.string().regex(/^[a-z0-9][a-z0-9-]{0,79}$/, 'expected a lower-case id: letters, digits and "-"');
+
+/** Operators a rule may use. The "is…" family is false when the fact is unknown. */
+export const OPERATORS = [
+  'is',
+  'isNot',
+  'isOneOf',
+  'isNoneOf',
+  'equal',
+  'greaterThan',
+  'greaterThanInclusive',
+  'lessThan',
+  'lessThanInclusive',
+  'contains',
+  'doesNotContain',
+] as const;
+
+const factRef = z.strictObject({ fact: z.string().min(1), path: z.string().regex(/^\$\.[A-Za-z0-9]+$/, 'expected a path "$.name"').optional() });
+
+const leaf = z.strictObject({
+  fact: z.string().min(1),
+  path: z.string().regex(/^\$\.[A-Za-z0-9]+$/, 'expected a path "$.name"').optional(),
+  operator: z.enum(OPERATORS),
+  value: z.union([z.string(), z.number(), z.boolean(), z.array(z.string()), factRef]),
+});
+
+export type Leaf = z.infer<typeof leaf>;
+export type Condition = Leaf | { all: Condition[] } | { any: Condition[] } | { not: Condition } | { condition: string };
+
+export const conditionSchema: z.ZodType<Condition> = z.lazy(() =>
+  z.union([
+    leaf,
+    z.strictObject({ all: z.array(conditionSchema).min(1) }),
+    z.strictObject({ any: z.array(conditionSchema).min(1) }),
+    z.strictObject({ not: conditionSchema }),
+    z.strictObject({ condition: id }),
+  ]),
+);
+
+const appliesTo = z.strictObject({
+  connections: z.array(z.enum(CONNECTIONS)).min(1).optional(),
+  drives: z.array(z.enum(DRIVES)).min(1).optional(),
+  feedback: z.array(z.enum(FEEDBACK)).min(1).optional(),
+});
+export type AppliesTo = z.infer<typeof appliesTo>;
+
+export const causeSchema = z.strictObject({
+  id,
+  title: z.string().min(1),
+  description: z.string().min(1),
+  /** Only these machines can have this fault; absent = all. */
+  appliesTo: appliesTo.optional(),
+  checks: z.array(id).min(1),
+});
+export const causesFile = z.strictObject({ causes: z.array(causeSchema).min(1) });
+
+export const MACHINE_STATES = ['observe', 'live-test', 'isolated'] as const;
+export type MachineState = (typeof MACHINE_STATES)[number];
+
+export const checkSchema = z.strictObject({
+  id,
+  title: z.string().min(1),
+  how: z.string().min(1),
+  instrument: z.string().min(1),
+  state: z.enum(MACHINE_STATES),
+  hazards: z.array(id),
+  minutes: z.number().positive().max(600),
+  /** An insulation or winding test that clears a fault before anything is re-energised. */
+  clearsFaultBeforeEnergising: z.boolean().optional(),
+});
+export const checksFile = z.strictObject({ checks: z.array(checkSchema).min(1) });
+
+const answer = z.discriminatedUnion('kind', [
+  z.strictObject({ kind: z.literal('choice'), observation: z.string().min(1) }),
+  z.strictObject({ kind: z.literal('quantity'), reading: z.string().min(1) }),
+  z.strictObject({ kind: z.literal('symptoms') }),
+]);
+
+export const questionSchema = z.strictObject({
+  id,
+  prompt: z.string().min(1),
+  state: z.enum(MACHINE_STATES),
+  answer,
+  /** Ask only when this holds (e.g. a controlled drive). */
+  askWhen: conditionSchema.optional(),
+});
+export const questionsFile = z.strictObject({ questions: z.array(questionSchema).min(1) });
+
+export const safetyFile = z.strictObject({
+  isolation: z.strictObject({
+    source: z.string().min(1),
+    steps: z.array(z.strictObject({ id, says: z.string().min(1) })).length(5),
+    dcSpecific: z.array(z.strictObject({ id, says: z.string().min(1) })),
+    prevails: z.string().min(1),
+  }),
+  hazards: z.array(z.strictObject({ id, says: z.string().min(1) })).min(1),
+  warnings: z.array(z.strictObject({ id, says: z.string().min(1), isolateFirst: z.boolean() })).min(1),
+  notice: z.string().min(1),
+});
+
+export const sharedConditionsFile = z.strictObject({ conditions: z.record(id, conditionSchema) });
+
+const ruleBase = { name: id, conditions: conditionSchema, says: z.string().min(1).optional() };
+
+export const ruleSchema = z.discriminatedUnion('kind', [
+  /** Derives an intermediate fact (true) for other rules. */
+  z.strictObject({ ...ruleBase, kind: z.literal('derive'), derive: id }),
+  /** Evidence for (weight > 0) or against (weight < 0) a cause, as a certainty factor. */
+  z.strictObject({ ...ruleBase, kind: z.literal('evidence'), cause: id, weight: z.number().min(-1).max(1).refine((w) => w !== 0, 'a weight of 0 says nothing') }),
+  /** Rules a cause out altogether. */
+  z.strictObject({ ...ruleBase, kind: z.literal('rule-out'), cause: id }),
+  /** Raises a safety warning shown before any cause. */
+  z.strictObject({ ...ruleBase, kind: z.literal('warning'), warning: id }),
+]);
+export type Rule = z.infer<typeof ruleSchema>;
+
+export const ruleFile = z.strictObject({
+  family: z.string().min(1),
+  description: z.string().min(1).optional(),
+  rules: z.array(ruleSchema).min(1),
+});
+
+export type Cause = z.infer<typeof causeSchema>;
+export type Check = z.infer<typeof checkSchema>;
+export type Question = z.infer<typeof questionSchema>;
+export type Safety = z.infer<typeof safetyFile>;
+
+/** The files of a rule folder that are not rule files. */
+export const CATALOGUE_FILES = {
+  'causes.json': causesFile,
+  'checks.json': checksFile,
+  'questions.json': questionsFile,
+  'safety.json': safetyFile,
+  'conditions.json': sharedConditionsFile,
+} as const;

@@ -1,0 +1,36 @@
+/** Every quantity the model can compute, with the words a fitter reads it by. */
+export const QUANTITY_LABELS = {
+  armatureCircuitResistance: 'armature circuit resistance',
+  ratedBackEmf: 'rated back-EMF',
+  machineConstant: 'machine constant kΦ',
+  ratedTorque: 'rated torque',
+  ratedArmatureCurrent: 'armature current against rated',
+  ratedArmatureVoltage: 'armature voltage against rated',
+  cableDrop: 'terminal voltage against supply-end voltage',
+  ratedFieldVoltage: 'field voltage against rated',
+  fieldCurrent: 'field current',
+  ratedFieldCurrent: 'field current against rated',
+  speed: 'speed',
+  speedFromMeasuredField: 'speed the measured field current would give',
+  backEmf: 'back-EMF',
+  torque: 'torque at the measured current',
+  speedRegulation: 'speed regulation',
+  armatureWindingTemperature: 'armature winding temperature',
+  armatureTemperatureLimit: 'armature temperature limit',
+  fieldWindingTemperature: 'field winding temperature',
+  fieldTemperatureLimit: 'field temperature limit',
+  insulationResistanceAt40C: 'insulation resistance at 40 °C',
+  insulationMinimum: 'insulation resistance minimum',
+  polarizationIndex: 'polarization index',
+  polarizationIndexMinimum: 'polarization index minimum',
+  speedReverse: 'speed in reverse against forward',
+  tachoVoltage: 'tacho voltage',
+  currentLimit: 'drive current limit against rated current',
+  brushLength: 'brush length against new',
+  brushSpringPressure: 'brush spring pressure against the lowest normal',
+  commutatorRunout: 'commutator runout against its limit',
+  noLoadCurrent: 'no-load current against the normal most',
+} as const;
+
+export type QuantityName = keyof typeof QUANTITY_LABELS;
+export const QUANTITY_NAMES = Object.keys(QUANTITY_LABELS) as QuantityName[];
