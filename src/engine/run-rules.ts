@@ -34,8 +34,8 @@ export function buildEngine(base: RuleBase): Engine {
   engine.addOperator<unknown, unknown[]>('isOneOf', (a, b) => known(a) && b.includes(a));
   engine.addOperator<unknown, unknown[]>('isNoneOf', (a, b) => known(a) && !b.includes(a));
   for (const [name, cond] of Object.entries(base.conditions)) engine.setCondition(name, topLevel(cond));
-  base.rules.forEach(({ rule }, k) => {
-    engine.addRule({ name: rule.name, priority: 1, conditions: topLevel(rule.conditions), event: { type: rule.kind, params: { index: k } } });
+  base.rules.forEach(({ rule }) => {
+    engine.addRule({ name: rule.name, priority: 1, conditions: topLevel(rule.conditions), event: { type: rule.kind } });
   });
   return engine;
 }
@@ -46,10 +46,12 @@ function topLevel(c: Condition): TopLevelCondition {
 
 export async function runToFixpoint(engine: Engine, base: RuleBase, start: Facts): Promise<RunOutcome> {
   const limit = base.rules.filter((r) => r.rule.kind === 'derive').length + 2;
+  const byName = new Map(base.rules.map(({ rule }) => [rule.name, rule]));
   let facts = { ...start };
   for (let iteration = 1; iteration <= limit; iteration++) {
     const { results } = await engine.run(facts);
-    const fired = results.map((r: RuleResult) => ({ rule: base.rules[(r.event?.params as { index: number }).index]!.rule, tree: r.toJSON(false).conditions }));
+    // Rule names are unique in a loaded rule base (the loader checks it).
+    const fired = results.map((r: RuleResult) => ({ rule: byName.get(r.name as string)!, tree: r.toJSON(false).conditions }));
     const added: Facts = {};
     for (const { rule } of fired) if (rule.kind === 'derive' && facts[rule.derive] !== true) added[rule.derive] = true;
     if (Object.keys(added).length === 0) return { facts, fired: sortByName(fired), iterations: iteration };

@@ -1,7 +1,8 @@
 /** Builders shared by the model tests. */
 import { computeExpectations, type ModelInput, type Quantity } from '../../src/model/expected.js';
+import type { QuantityName } from '../../src/model/quantity-names.js';
 
-export function quantityOf(input: ModelInput, name: string): Quantity {
+export function quantityOf(input: ModelInput, name: QuantityName): Quantity {
   const e = computeExpectations(input);
   const q = e.quantities[name];
   if (!q) throw new Error(`${name} not computed; missing: ${JSON.stringify(e.missing)}`);
