@@ -1,0 +1,49 @@
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../support/cli.js';
+import { copyOfRules } from '../support/rules.js';
+import { writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+
+const demo = 'cases/2026-10-14-press-feed-field-weak.json';
+
+describe('dctriage diagnose', () => {
+  it('prints causes, checks, isolation and quantities as JSON', () => {
+    const r = runCli(['diagnose', demo, '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(Object.keys(j)).toEqual(['warnings', 'causes', 'checks', 'isolation', 'quantities']);
+    expect(j.causes[0]).toMatchObject({ id: 'field-weak', title: 'Field weak' });
+    expect(j.causes[0].evidence[0]).toEqual({ rule: expect.any(String), says: expect.stringContaining('field current') });
+    for (const c of j.checks) expect(['observe', 'live-test', 'isolated']).toContain(c.state);
+    expect(j.isolation.steps.length).toBeGreaterThanOrEqual(5);
+    expect(j.quantities.speed.measured).toBe(2010);
+  });
+
+  it('stops on a bad rule file with the file and the rule named, exit 2', () => {
+    const dir = copyOfRules();
+    writeFileSync(join(dir, 'broken.json'), JSON.stringify({ family: 'x', rules: [{ name: 'odd', kind: 'evidence', cause: 'field-weak', weight: 0.5, conditions: { all: [{ fact: 'colour', operator: 'is', value: 'red' }] } }] }));
+    const r = runCli(['diagnose', demo, '--rules', dir]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toContain(`${join(dir, 'broken.json')}: at rules[0] (odd).conditions.all[0].fact: unknown fact "colour"`);
+  });
+
+  it('refuses a case whose confirmed cause is not in the catalogue', () => {
+    const dir = copyOfRules();
+    const file = join(dir, '..', 'odd-case.json');
+    writeFileSync(file, JSON.stringify({ format: 'dc-case/1', machine: { connection: 'shunt' }, outcome: { cause: 'gremlins' } }));
+    const r = runCli(['diagnose', file]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('outcome.cause: "gremlins" is not a cause of the catalogue in use');
+  });
+});
+
+describe('dctriage cases check', () => {
+  it('reports top-1 and top-3 over the recorded cases as JSON', () => {
+    const r = runCli(['cases', 'check', 'cases', '--json']);
+    const j = JSON.parse(r.stdout);
+    expect(j.total).toBeGreaterThan(0);
+    expect(j.cases[0]).toEqual({ id: expect.any(String), file: expect.any(String), expected: expect.any(String), rank: expect.any(Number), ranked: expect.any(Array) });
+    expect(r.code).toBe(j.cases.some((c: { rank: number }) => c.rank === 0 || c.rank > 3) ? 1 : 0);
+  });
+});
