@@ -12,7 +12,11 @@ import { loadRuleBase, type RuleBase } from './knowledge/load-rules.js';
 import { formatIssues, type Issue } from './knowledge/result.js';
 import { diagnose } from './engine/diagnose.js';
 import { buildEngine, RuleCycleError } from './engine/run-rules.js';
-import { checkCases } from './engine/check-cases.js';
+import { checkCases, type CaseRunner } from './engine/check-cases.js';
+import { buildFlow } from './dialogue/flow.js';
+import { replayCase } from './dialogue/replay.js';
+import { readJson } from './knowledge/read-json.js';
+import type { CaseInput } from './knowledge/case-schema.js';
 import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
@@ -46,6 +50,7 @@ async function main(argv: string[]): Promise<number> {
         version: { type: 'boolean', short: 'V' },
         json: { type: 'boolean' },
         rules: { type: 'string' },
+        adaptive: { type: 'boolean' },
       },
     });
   } catch (e) {
@@ -72,16 +77,22 @@ async function main(argv: string[]): Promise<number> {
       if (!base.ok) return fail(base.issues);
       const c = loadCase(file, causeIdsOf(base.value));
       if (!c.ok) return fail(c.issues);
-      const d = await diagnose(c.value, base.value, buildEngine(base.value));
+      const engine = buildEngine(base.value);
+      const replay = opts.adaptive ? await replayCase(rawCase(file), buildFlow(base.value), engine) : undefined;
+      const d = replay?.diagnosis ?? (await diagnose(c.value, base.value, engine));
       if (opts.json) {
         out(JSON.stringify({
+          ...(replay ? { questionsAsked: replay.questionsAsked } : {}),
           warnings: d.warnings,
           causes: d.causes.map(({ id, title, score, evidence }) => ({ id, title, score, evidence: evidence.map(({ rule, says }) => ({ rule, says })) })),
           checks: d.checks.map(({ id, title, state, causes, minutes }) => ({ id, title, state, causes, minutes })),
           isolation: d.isolation,
           quantities: d.expectation.quantities,
         }, null, 2));
-      } else out(formatDiagnosis(d));
+      } else {
+        if (replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
+        out(formatDiagnosis(d));
+      }
       return 0;
     }
     case 'cases': {
@@ -95,7 +106,16 @@ async function main(argv: string[]): Promise<number> {
       } catch {
         return fail([{ code: 'unreadable', file: dir, path: '', message: 'cases folder cannot be read' }]);
       }
-      const report = await checkCases(files, base.value);
+      let runner: CaseRunner | undefined;
+      if (opts.adaptive) {
+        const flow = buildFlow(base.value);
+        const engine = buildEngine(base.value);
+        runner = async (_c, file) => {
+          const r = await replayCase(rawCase(file), flow, engine);
+          return { ranked: r.diagnosis.causes.map((x) => x.id), questionsAsked: r.questionsAsked };
+        };
+      }
+      const report = await checkCases(files, base.value, runner);
       if (!report.ok) return fail(report.issues);
       out(opts.json ? JSON.stringify(report.value, null, 2) : formatCaseCheck(report.value));
       return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
@@ -106,6 +126,13 @@ async function main(argv: string[]): Promise<number> {
     default:
       throw new UsageError(`unknown command "${command}"`);
   }
+}
+
+/** The case file as written; called only after loadCase has validated the same file. */
+function rawCase(file: string): CaseInput {
+  const r = readJson(file);
+  if (!r.ok) throw new Error(`${file} could not be read again`);
+  return r.value as CaseInput;
 }
 
 function causeIdsOf(base: RuleBase): Set<string> {

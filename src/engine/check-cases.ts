@@ -1,4 +1,5 @@
 /** Runs every recorded case whose outcome names a cause and reports where that cause ranked. */
+import type { CaseFile } from '../knowledge/case-schema.js';
 import { loadCase } from '../knowledge/load-case.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import { failed, ok, type Issue, type Result } from '../knowledge/result.js';
@@ -12,7 +13,12 @@ export interface CaseRank {
   /** 1-based rank of the confirmed cause; 0 when it is not ranked at all. */
   rank: number;
   ranked: string[];
+  /** With an adaptive run: the question ids the dialogue's policy asked, in order. */
+  questionsAsked?: string[];
 }
+
+/** How a case is put to the engine: whole, or through the dialogue's questions. */
+export type CaseRunner = (c: CaseFile, file: string) => Promise<{ ranked: string[]; questionsAsked?: string[] }>;
 
 export interface CaseCheckReport {
   total: number;
@@ -21,8 +27,9 @@ export interface CaseCheckReport {
   cases: CaseRank[];
 }
 
-export async function checkCases(files: string[], base: RuleBase): Promise<Result<CaseCheckReport>> {
+export async function checkCases(files: string[], base: RuleBase, runner?: CaseRunner): Promise<Result<CaseCheckReport>> {
   const engine = buildEngine(base);
+  const run: CaseRunner = runner ?? (async (c) => ({ ranked: (await diagnose(c, base, engine)).causes.map((x) => x.id) }));
   const causeIds = new Set(base.causes.map((c) => c.id));
   const issues: Issue[] = [];
   const cases: CaseRank[] = [];
@@ -34,9 +41,8 @@ export async function checkCases(files: string[], base: RuleBase): Promise<Resul
     }
     const expected = c.value.outcome?.cause;
     if (expected === undefined) continue;
-    const d = await diagnose(c.value, base, engine);
-    const ranked = d.causes.map((x) => x.id);
-    cases.push({ id: c.value.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5) });
+    const { ranked, questionsAsked } = await run(c.value, file);
+    cases.push({ id: c.value.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}) });
   }
   if (issues.length) return failed(...issues);
   return ok({

@@ -45,6 +45,8 @@ export interface Diagnosis {
   isolation: { beforeCheck: string | null; steps: string[] };
   expectation: Expectation;
   facts: Facts;
+  /** Questions whose askWhen condition holds for this job. */
+  askable: Set<string>;
 }
 
 /** How many of the leading causes contribute checks. */
@@ -54,7 +56,7 @@ export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 
 
 export async function diagnose(job: JobInput, base: RuleBase, engine: Engine): Promise<Diagnosis> {
   const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
-  const { facts, fired } = await runToFixpoint(engine, base, jobFacts(job, expectation));
+  const { facts, fired, askable } = await runToFixpoint(engine, base, jobFacts(job, expectation));
   // A derived fact is explained by what the rule that derived it saw, recursively.
   const derivedBy = new Map(fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])));
   const words = new Map<string, string>();
@@ -131,5 +133,6 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: Engine): P
     },
     expectation,
     facts,
+    askable,
   };
 }

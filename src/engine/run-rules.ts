@@ -18,10 +18,14 @@ export interface Fired {
 export interface RunOutcome {
   facts: Facts;
   fired: Fired[];
+  /** Questions whose askWhen held. */
+  askable: Set<string>;
   iterations: number;
 }
 
 export class RuleCycleError extends Error {}
+
+const ASK_PREFIX = 'ask:';
 
 const known = (a: unknown) => a !== undefined && a !== null;
 
@@ -37,6 +41,10 @@ export function buildEngine(base: RuleBase): Engine {
   base.rules.forEach(({ rule }) => {
     engine.addRule({ name: rule.name, priority: 1, conditions: topLevel(rule.conditions), event: { type: rule.kind } });
   });
+  // A question's askWhen is a rule of its own, so the engine decides it along with the rest.
+  for (const q of base.questions) {
+    if (q.askWhen) engine.addRule({ name: `${ASK_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askWhen), event: { type: 'askable' } });
+  }
   return engine;
 }
 
@@ -50,11 +58,13 @@ export async function runToFixpoint(engine: Engine, base: RuleBase, start: Facts
   let facts = { ...start };
   for (let iteration = 1; iteration <= limit; iteration++) {
     const { results } = await engine.run(facts);
+    const names = results.map((r: RuleResult) => String(r.name));
+    const askable = new Set(names.filter((n) => n.startsWith(ASK_PREFIX)).map((n) => n.slice(ASK_PREFIX.length)));
     // Rule names are unique in a loaded rule base (the loader checks it).
-    const fired = results.map((r: RuleResult) => ({ rule: byName.get(r.name as string)!, tree: r.toJSON(false).conditions }));
+    const fired = results.filter((r) => byName.has(String(r.name))).map((r: RuleResult) => ({ rule: byName.get(String(r.name))!, tree: r.toJSON(false).conditions }));
     const added: Facts = {};
     for (const { rule } of fired) if (rule.kind === 'derive' && facts[rule.derive] !== true) added[rule.derive] = true;
-    if (Object.keys(added).length === 0) return { facts, fired: sortByName(fired), iterations: iteration };
+    if (Object.keys(added).length === 0) return { facts, fired: sortByName(fired), askable, iterations: iteration };
     facts = { ...facts, ...added };
   }
   throw new RuleCycleError(`rules did not settle after ${limit} runs: derived facts keep changing`);

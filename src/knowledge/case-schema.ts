@@ -65,30 +65,36 @@ export const machineSchema = z.strictObject({
   brushDrop: quantity('voltage', 'total brush contact drop').optional(),
 });
 
+/** Quantity readings of dc-case/1: the dimension each takes and what it is. */
+export const READING_FIELDS = {
+  armatureVoltage: { dimension: 'voltage', says: "the machine's terminal voltage" },
+  supplyVoltage: { dimension: 'voltage', says: 'voltage at the supply or drive end' },
+  armatureCurrent: { dimension: 'current', says: 'armature current' },
+  fieldVoltage: { dimension: 'voltage', says: 'field voltage' },
+  fieldCurrent: { dimension: 'current', says: 'shunt or separate field current' },
+  lineCurrent: { dimension: 'current', says: 'supply current (armature and shunt field)' },
+  speed: { dimension: 'speed', says: 'speed' },
+  speedReverse: { dimension: 'speed', says: 'speed at the same set-point in the other direction' },
+  noLoadArmatureCurrent: { dimension: 'current', says: 'armature current running uncoupled' },
+  ambientTemperature: { dimension: 'temperature', says: 'ambient or coolant temperature' },
+  armatureResistanceHot: { dimension: 'resistance', says: 'armature circuit resistance measured hot' },
+  shuntFieldResistanceHot: { dimension: 'resistance', says: 'shunt field resistance measured hot' },
+  insulationResistance1min: { dimension: 'insulation', says: 'insulation resistance after 1 minute' },
+  insulationResistance10min: { dimension: 'insulation', says: 'insulation resistance after 10 minutes' },
+  insulationTestTemperature: { dimension: 'temperature', says: 'winding temperature during the insulation test' },
+  insulationTestVoltage: { dimension: 'voltage', says: 'insulation tester voltage' },
+  tachoVoltage: { dimension: 'signedVoltage', says: 'tacho generator output' },
+  currentLimitSetting: { dimension: 'current', says: "drive's armature current limit" },
+  brushLength: { dimension: 'length', says: 'shortest brush length' },
+  brushLengthNew: { dimension: 'length', says: 'length of a new brush' },
+  brushSpringPressure: { dimension: 'pressure', says: 'brush spring pressure' },
+  commutatorRunout: { dimension: 'length', says: 'commutator runout (TIR)' },
+} as const satisfies Record<string, { dimension: Dimension; says: string }>;
+export type ReadingName = keyof typeof READING_FIELDS;
+
 const readingShape = {
-  armatureVoltage: quantity('voltage', "the machine's terminal voltage"),
-  supplyVoltage: quantity('voltage', 'voltage at the supply or drive end'),
-  armatureCurrent: quantity('current', 'armature current'),
-  fieldVoltage: quantity('voltage', 'field voltage'),
-  fieldCurrent: quantity('current', 'shunt or separate field current'),
-  lineCurrent: quantity('current', 'supply current (armature and shunt field)'),
-  speed: quantity('speed', 'speed'),
-  speedReverse: quantity('speed', 'speed at the same set-point in the other direction'),
-  noLoadArmatureCurrent: quantity('current', 'armature current running uncoupled'),
-  ambientTemperature: quantity('temperature', 'ambient or coolant temperature'),
-  armatureResistanceHot: quantity('resistance', 'armature circuit resistance measured hot'),
-  shuntFieldResistanceHot: quantity('resistance', 'shunt field resistance measured hot'),
-  insulationResistance1min: quantity('insulation', 'insulation resistance after 1 minute'),
-  insulationResistance10min: quantity('insulation', 'insulation resistance after 10 minutes'),
-  insulationTestTemperature: quantity('temperature', 'winding temperature during the insulation test'),
-  insulationTestVoltage: quantity('voltage', 'insulation tester voltage'),
+  ...(Object.fromEntries(Object.entries(READING_FIELDS).map(([k, f]) => [k, quantity(f.dimension, f.says)])) as { [K in ReadingName]: ReturnType<typeof quantity> }),
   insulationTestedWinding: z.enum(TESTED_WINDINGS),
-  tachoVoltage: quantity('signedVoltage', 'tacho generator output'),
-  currentLimitSetting: quantity('current', "drive's armature current limit"),
-  brushLength: quantity('length', 'shortest brush length'),
-  brushLengthNew: quantity('length', 'length of a new brush'),
-  brushSpringPressure: quantity('pressure', 'brush spring pressure'),
-  commutatorRunout: quantity('length', 'commutator runout (TIR)'),
 };
 export const readingsSchema = z.strictObject(
   Object.fromEntries(Object.entries(readingShape).map(([k, s]) => [k, s.optional()])) as {

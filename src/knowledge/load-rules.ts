@@ -7,7 +7,7 @@ import { readdirSync } from 'node:fs';
 import type * as z from 'zod';
 import { join } from 'node:path';
 import { QUANTITY_NAMES } from '../model/quantity-names.js';
-import { readingsSchema } from './case-schema.js';
+import { READING_FIELDS } from './case-schema.js';
 import { readJson, validate } from './read-json.js';
 import { failed, ok, type Issue, type Result } from './result.js';
 import {
@@ -138,7 +138,7 @@ export function crossCheck(base: RuleBase): Issue[] {
   base.questions.forEach((q, k) => {
     const where = `questions[${k}] (${q.id})`;
     if (q.answer.kind === 'choice' && !(q.answer.observation in OBSERVATIONS)) issues.push(issue(f('questions.json'), `${where}.answer.observation`, `"${q.answer.observation}" is not an observation of dc-case/1`));
-    if (q.answer.kind === 'quantity' && !(q.answer.reading in readingsSchema.shape)) issues.push(issue(f('questions.json'), `${where}.answer.reading`, `"${q.answer.reading}" is not a reading of dc-case/1`));
+    if (q.answer.kind === 'quantity' && !(q.answer.reading in READING_FIELDS)) issues.push(issue(f('questions.json'), `${where}.answer.reading`, `"${q.answer.reading}" is not a reading of dc-case/1`));
     if (q.askWhen) issues.push(...checkCondition(q.askWhen, f('questions.json'), `${where}.askWhen`, derived, base.conditions));
   });
   const cycle = findDeriveCycle(base);

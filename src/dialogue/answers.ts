@@ -1,0 +1,63 @@
+/**
+ * What the fitter typed, read against the question: a choice by number or word, several
+ * symptoms, a quantity through the unit adapter, free text. Never throws: a value or a reason.
+ */
+import { describeQuantityError, DIMENSIONS, parseQuantity } from '../units/quantity.js';
+import type { DialogueQuestion } from './questions.js';
+
+export type AnswerValue = { kind: 'unknown' } | { kind: 'one'; value: string } | { kind: 'many'; values: string[] } | { kind: 'text'; value: string };
+
+export type ParsedAnswer = { ok: true; value: AnswerValue; shown: string } | { ok: false; reason: string };
+
+const UNKNOWN_WORDS = new Set(['', 'unknown', '?', '-', 'skip', 'dunno', "don't know", 'n/a', 'na']);
+/** Typed text beyond this is cut before reading: nobody types a 300-character answer. */
+export const MAX_ANSWER_LENGTH = 200;
+
+export function cleanInput(text: string): string {
+  // Control characters (pasted escape sequences, tabs) are dropped; spaces are kept single.
+  // eslint-disable-next-line no-control-regex
+  return text.replace(/[\u0000-\u001f\u007f]/g, ' ').replace(/\s+/g, ' ').trim().slice(0, MAX_ANSWER_LENGTH);
+}
+
+export function parseAnswer(q: DialogueQuestion, typed: string): ParsedAnswer {
+  const text = cleanInput(typed);
+  if (UNKNOWN_WORDS.has(text.toLowerCase())) return { ok: true, value: { kind: 'unknown' }, shown: 'unknown' };
+  const a = q.answer;
+  switch (a.kind) {
+    case 'text':
+      return { ok: true, value: { kind: 'text', value: text }, shown: text };
+    case 'quantity': {
+      const r = parseQuantity(text, a.dimension);
+      if (!r.ok) return { ok: false, reason: describeQuantityError(r.error) };
+      const bare = /^[+-]?[\d.,]+$/.test(text);
+      return { ok: true, value: { kind: 'text', value: text }, shown: bare ? `${text} ${DIMENSIONS[a.dimension].unit}` : text };
+    }
+    case 'choice': {
+      const pick = pickOption(a.options, text);
+      if (!pick) return { ok: false, reason: `"${text}" is not one of the choices: give its number (1–${a.options.length}) or its word` };
+      return { ok: true, value: { kind: 'one', value: pick.value }, shown: pick.label };
+    }
+    case 'many': {
+      const parts = text.split(/[\s,;]+/).filter(Boolean);
+      const picks = parts.map((p) => ({ p, o: pickOption(a.options, p) }));
+      const bad = picks.find((x) => !x.o);
+      if (bad) return { ok: false, reason: `"${bad.p}" is not one of the choices: give numbers (1–${a.options.length}) separated by spaces` };
+      const values = [...new Set(picks.map((x) => x.o!.value))];
+      return { ok: true, value: { kind: 'many', values }, shown: values.map((v) => a.options.find((o) => o.value === v)!.label).join(', ') };
+    }
+  }
+}
+
+function pickOption(options: { value: string; label: string }[], text: string) {
+  const t = text.toLowerCase();
+  if (/^\d+$/.test(t)) return options[Number(t) - 1];
+  return (
+    options.find((o) => o.value === t || o.label.toLowerCase() === t) ??
+    // A unique prefix of a value or label is enough: "ru" for running.
+    unique(options.filter((o) => o.value.startsWith(t) || o.label.toLowerCase().startsWith(t)))
+  );
+}
+
+function unique<T>(xs: T[]): T | undefined {
+  return xs.length === 1 ? xs[0] : undefined;
+}

@@ -1,0 +1,100 @@
+/**
+ * The order of a job: the questions that decide what is safe to ask, the machine (unless a
+ * machine file was given), the symptoms, then whatever the policy finds most useful until the
+ * leading cause is clear or nothing left would change the order.
+ */
+import type { Diagnosis } from '../engine/diagnose.js';
+import type { RuleBase } from '../knowledge/load-rules.js';
+import { computeExpectations } from '../model/expected.js';
+import type { CaseFile } from '../knowledge/case-schema.js';
+import type { Answer } from './job.js';
+import { chooseQuestion, compilePolicy, leaderIsClear, type Policy } from './policy.js';
+import { fromRuleQuestion, machineQuestions, SAFETY_OPENING, type DialogueQuestion } from './questions.js';
+
+/** The dialogue stops offering questions after this many adaptive ones; the fitter can go on asking for the result earlier. */
+export const MAX_ADAPTIVE_QUESTIONS = 14;
+
+export interface Flow {
+  base: RuleBase;
+  policy: Policy;
+  opening: DialogueQuestion[];
+  machine: DialogueQuestion[];
+  adaptive: DialogueQuestion[];
+  all: Map<string, DialogueQuestion>;
+}
+
+export function buildFlow(base: RuleBase): Flow {
+  const opening = SAFETY_OPENING.flatMap((id) => base.questions.filter((q) => q.id === id)).map((q) => fromRuleQuestion(q, true));
+  const adaptive = base.questions.filter((q) => !SAFETY_OPENING.includes(q.id)).map((q) => fromRuleQuestion(q, false));
+  const machine = machineQuestions();
+  const all = new Map([...opening, ...machine, ...adaptive].map((q) => [q.id, q]));
+  return { base, policy: compilePolicy(base, adaptive), opening, machine, adaptive, all };
+}
+
+export type Next = { kind: 'ask'; question: DialogueQuestion; gain?: number } | { kind: 'needs-diagnosis' } | { kind: 'done'; why: string };
+
+export interface Progress {
+  answers: readonly Answer[];
+  /** The machine came from a file: its questions are not asked. */
+  machineGiven: boolean;
+  /** The diagnosis of the answers as they stand, once the machine's connection is known. */
+  diagnosis?: Diagnosis | undefined;
+  /** The job as the engine reads it, for judging which readings can be used. */
+  job?: CaseFile | undefined;
+}
+
+export function nextStep(flow: Flow, p: Progress): Next {
+  const answered = new Set(p.answers.map((a) => a.questionId));
+  for (const q of flow.opening) if (!answered.has(q.id)) return { kind: 'ask', question: q };
+  if (!p.machineGiven) {
+    for (const q of flow.machine) {
+      if (answered.has(q.id) || q.id === 'symptoms') continue;
+      if (q.id === 'feedback' && !drivesMayHaveFeedback(p.answers)) continue;
+      if (q.target.section === 'nameplate' && q.target.name.startsWith('field') && !hasWoundShuntField(p.answers)) continue;
+      return { kind: 'ask', question: q };
+    }
+  }
+  if (!answered.has('symptoms')) return { kind: 'ask', question: flow.all.get('symptoms')! };
+  if (!p.diagnosis) return { kind: 'needs-diagnosis' };
+  const adaptiveAsked = p.answers.filter((a) => !flow.all.get(a.questionId)?.opening).length;
+  if (adaptiveAsked >= MAX_ADAPTIVE_QUESTIONS) return { kind: 'done', why: `${MAX_ADAPTIVE_QUESTIONS} questions asked` };
+  if (leaderIsClear(p.diagnosis)) return { kind: 'done', why: 'the leading cause is clear' };
+  const d = p.diagnosis;
+  const safetyFirst = d.warnings.length > 0 && flow.base.safety.warnings.some((w) => w.isolateFirst && d.warnings.some((x) => x.id === w.id));
+  const available = (q: DialogueQuestion) =>
+    !answered.has(q.id) &&
+    (!q.source?.askWhen || d.askable.has(q.id)) &&
+    // After a fault trip or a runaway warning nothing is asked that means running it again.
+    !(safetyFirst && (q.source?.needsRunning || q.state === 'live-test')) &&
+    (q.target.section !== 'readings' || readingIsUsable(p.job, q.target.name));
+  const choice = chooseQuestion(flow.policy, d, available);
+  return choice ? { kind: 'ask', question: choice.question, gain: choice.gain } : { kind: 'done', why: 'no remaining question would change the order' };
+}
+
+function answerOf(answers: readonly Answer[], id: string): string | undefined {
+  const a = [...answers].reverse().find((x) => x.questionId === id);
+  return a?.value.kind === 'one' ? a.value.value : undefined;
+}
+
+function drivesMayHaveFeedback(answers: readonly Answer[]): boolean {
+  return answerOf(answers, 'drive') !== 'fixed-supply';
+}
+
+function hasWoundShuntField(answers: readonly Answer[]): boolean {
+  return !['series', 'permanent-magnet'].includes(answerOf(answers, 'connection') ?? '');
+}
+
+/** A reading is worth asking for only if the model can set it against something. */
+export function readingIsUsable(job: CaseFile | undefined, reading: string): boolean {
+  if (!job) return false;
+  const readings = (job.readings ?? {}) as Record<string, unknown>;
+  if (readings[reading] !== undefined) return false;
+  const before = computeExpectations({ machine: job.machine, readings: job.readings });
+  const probe = computeExpectations({ machine: { ...job.machine, tachoVoltsPer1000Rpm: job.machine.tachoVoltsPer1000Rpm ?? 60 }, readings: { ...job.readings, [reading]: reading === 'speed' || reading === 'speedReverse' ? 1000 : 10 } });
+  const gained = Object.entries(probe.quantities).filter(([k, q]) => {
+    const b = before.quantities[k as keyof typeof before.quantities];
+    return !b || (b.measured === null && q.measured !== null);
+  });
+  // Insulation and temperature readings feed quantities with no "measured" side; count new quantities too.
+  return gained.length > 0 || probe.findings.length > before.findings.length;
+}
