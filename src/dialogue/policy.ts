@@ -30,6 +30,14 @@ export interface Policy {
   causeIds: string[];
 }
 
+/**
+ * How often a fitter at the machine can answer, by what the question needs: what can be seen
+ * is usually known, a live measurement often, an isolated test seldom during the call-out
+ * (common practice). The expected gain is scaled by it, so a question that is usually answered
+ * "unknown" is asked later.
+ */
+const CHANCE_OF_AN_ANSWER: Record<DialogueQuestion['state'], number> = { observe: 0.85, 'live-test': 0.6, isolated: 0.3 };
+
 const OUT_OF_BAND_IF_WATCHED = 0.8;
 const OUT_OF_BAND_OTHERWISE = 0.2;
 /** Belief given to a cause no evidence speaks for yet, against scores in (0, 1]. */
@@ -150,7 +158,7 @@ export function rankQuestions(policy: Policy, d: Diagnosis, available: (q: Dialo
   const b = belief(d, policy.causeIds);
   return policy.questions
     .filter((cq) => available(cq.question))
-    .map((cq) => ({ question: cq.question, gain: informationGain(cq, b) }))
+    .map((cq) => ({ question: cq.question, gain: CHANCE_OF_AN_ANSWER[cq.question.state] * informationGain(cq, b) }))
     .sort((x, y) => y.gain - x.gain || x.question.id.localeCompare(y.question.id));
 }
 

@@ -56,6 +56,8 @@ function heldLeaves(node: unknown): TreeLeaf[] {
   return [];
 }
 
+const MACHINE_WORDS: Record<string, string> = { connection: 'connection', drive: 'drive', feedback: 'speed feedback', cooling: 'cooling', hasShuntField: 'has a shunt field', hasSeriesField: 'has a series field' };
+
 const OPERATOR_WORDS: Record<string, string> = {
   greaterThan: 'above',
   greaterThanInclusive: 'at least',
@@ -81,6 +83,7 @@ export function describeTree(tree: unknown, e: Expectation, derivedWords: Derive
       }
       if (q) return `${label} ${withUnit(leaf.fact === 'measured' && q.measured !== null ? q.measured : q.value, q.unit)} ${OPERATOR_WORDS[leaf.operator] ?? leaf.operator} ${describeValue(leaf.value, e)}`;
     }
+    if (leaf.fact in MACHINE_WORDS) return `${MACHINE_WORDS[leaf.fact]}: ${String(leaf.factResult).replace(/-/g, ' ')}`;
     return `${leaf.fact} ${leaf.operator} ${JSON.stringify(leaf.value)}`;
   });
   return parts.join('; ');
