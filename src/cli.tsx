@@ -16,7 +16,25 @@ import { checkCases, type CaseRunner } from './engine/check-cases.js';
 import { buildFlow } from './dialogue/flow.js';
 import { replayCase } from './dialogue/replay.js';
 import { readJson } from './knowledge/read-json.js';
-import type { CaseInput } from './knowledge/case-schema.js';
+import { caseSchema, machineSchema, type CaseInput } from './knowledge/case-schema.js';
+import { validate } from './knowledge/read-json.js';
+import { ok, type Result } from './knowledge/result.js';
+import { jobFromAnswers, type Answer } from './dialogue/job.js';
+import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Session } from './shell/session.js';
+import { writeNewFile } from './shell/write-new-file.js';
+
+/** --machine takes a machine object, or a whole case file whose machine is used; the raw machine is kept as typed. */
+function readMachineFile(file: string): Result<unknown> {
+  const raw = readJson(file);
+  if (!raw.ok) return raw;
+  const v = raw.value;
+  if (v !== null && typeof v === 'object' && 'format' in v) {
+    const c = validate(file, v, caseSchema);
+    return c.ok ? ok((v as Record<string, unknown>).machine) : c;
+  }
+  const m = validate(file, v, machineSchema);
+  return m.ok ? ok(v) : m;
+}
 import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
@@ -51,6 +69,8 @@ async function main(argv: string[]): Promise<number> {
         json: { type: 'boolean' },
         rules: { type: 'string' },
         adaptive: { type: 'boolean' },
+        machine: { type: 'string' },
+        session: { type: 'string' },
       },
     });
   } catch (e) {
@@ -121,10 +141,63 @@ async function main(argv: string[]): Promise<number> {
       return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
     }
     case undefined:
-      out(USAGE);
-      return 0;
+    case 'resume':
+      return dialogue(command === 'resume', opts);
     default:
       throw new UsageError(`unknown command "${command}"`);
+  }
+}
+
+/** The interactive dialogue; Ink is loaded only here. */
+async function dialogue(resume: boolean, opts: { rules?: string | undefined; machine?: string | undefined; session?: string | undefined }): Promise<number> {
+  if (!process.stdin.isTTY || !process.stdout.isTTY) {
+    process.stderr.write('dctriage: the dialogue needs a terminal. For a job in a file, run: dctriage diagnose FILE\n');
+    return 2;
+  }
+  const sessionFile = opts.session ?? defaultSessionFile();
+  let rulesDir = opts.rules ?? BUILT_IN_RULES;
+  let machineFile: unknown;
+  let saved: Session | undefined;
+  if (resume) {
+    const s = readSession(sessionFile);
+    if (!s.ok) return fail(s.issues);
+    saved = s.value;
+    rulesDir = opts.rules ?? s.value.rules;
+    machineFile = s.value.machineFile;
+  } else if (opts.machine) {
+    const m = readMachineFile(opts.machine);
+    if (!m.ok) return fail(m.issues);
+    machineFile = m.value;
+  }
+  const base = loadRuleBase(rulesDir);
+  if (!base.ok) return fail(base.issues);
+  const flow = buildFlow(base.value);
+  let initialAnswers: Answer[] = [];
+  if (saved) {
+    const a = sessionAnswers(sessionFile, saved, flow);
+    if (!a.ok) return fail(a.issues);
+    initialAnswers = a.value;
+  }
+  const { runDialogue } = await import('./ui/run-dialogue.js');
+  return runDialogue({
+    ctx: { flow, machineFile },
+    engine: buildEngine(base.value),
+    safetyNotice: base.value.safety.notice,
+    initialAnswers,
+    color: !process.env.NO_COLOR,
+    onAnswers: (answers) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers }),
+    onSave: (answers) => saveJob(jobFromAnswers(answers, machineFile)),
+  });
+}
+
+/** Writes the job beside the fitter as a dc-case/1 file that never replaces another. */
+function saveJob(draft: unknown): string {
+  const stem = `dctriage-job-${new Date().toISOString().slice(0, 10)}`;
+  try {
+    const w = writeNewFile(process.cwd(), stem, '.json', JSON.stringify(draft, null, 2) + '\n');
+    return `Saved the job as ${w.file}`;
+  } catch (e) {
+    return `Could not save the job in ${process.cwd()}: ${(e as Error).message}. The session is still kept; try from a folder you can write to.`;
   }
 }
 
@@ -138,6 +211,12 @@ function rawCase(file: string): CaseInput {
 function causeIdsOf(base: RuleBase): Set<string> {
   return new Set(base.causes.map((c) => c.id));
 }
+
+// A reader that stops early (dctriage … | head) is not an error.
+process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+  if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+  throw e;
+});
 
 main(process.argv.slice(2)).then(
   (code) => {

@@ -2,7 +2,7 @@
  * What the fitter typed, read against the question: a choice by number or word, several
  * symptoms, a quantity through the unit adapter, free text. Never throws: a value or a reason.
  */
-import { describeQuantityError, DIMENSIONS, parseQuantity } from '../units/quantity.js';
+import { describeQuantityError, DIMENSIONS, normalizeQuantityText, parseQuantity } from '../units/quantity.js';
 import type { DialogueQuestion } from './questions.js';
 
 export type AnswerValue = { kind: 'unknown' } | { kind: 'one'; value: string } | { kind: 'many'; values: string[] } | { kind: 'text'; value: string };
@@ -30,7 +30,8 @@ export function parseAnswer(q: DialogueQuestion, typed: string): ParsedAnswer {
       const r = parseQuantity(text, a.dimension);
       if (!r.ok) return { ok: false, reason: describeQuantityError(r.error) };
       const bare = /^[+-]?[\d.,]+$/.test(text);
-      return { ok: true, value: { kind: 'text', value: text }, shown: bare ? `${text} ${DIMENSIONS[a.dimension].unit}` : text };
+      const shown = bare ? `${text} ${DIMENSIONS[a.dimension].unit}` : normalizeQuantityText(text, a.dimension).replace(/ degC$/, ' °C').replace(/ ohm$/, ' Ω');
+      return { ok: true, value: { kind: 'text', value: text }, shown };
     }
     case 'choice': {
       const pick = pickOption(a.options, text);

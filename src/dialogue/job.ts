@@ -21,7 +21,7 @@ type Draft = Omit<CaseInput, 'machine'> & { machine: Record<string, unknown> & {
 
 /** The case file the answers make, the machine from a file underneath them. */
 export function jobFromAnswers(answers: readonly Answer[], machineFile?: unknown): Draft {
-  const draft: Draft = { format: CASE_FORMAT, machine: { ...((machineFile as Record<string, unknown>) ?? {}) } };
+  const draft: Draft = { format: CASE_FORMAT, machine: { ...(machineFile as Record<string, unknown> | undefined) } };
   const set = (obj: Record<string, unknown>, key: string, v: AnswerValue) => {
     if (v.kind === 'unknown') delete obj[key];
     else obj[key] = v.kind === 'many' ? v.values : v.value;
@@ -33,22 +33,22 @@ export function jobFromAnswers(answers: readonly Answer[], machineFile?: unknown
         set(draft.machine, t.name, a.value);
         break;
       case 'nameplate':
-        draft.machine.nameplate = { ...(draft.machine.nameplate ?? {}) };
+        draft.machine.nameplate = { ...draft.machine.nameplate };
         set(draft.machine.nameplate, t.name, a.value);
         break;
       case 'job':
-        draft.job = { ...(draft.job ?? {}) };
+        draft.job = { ...draft.job };
         set(draft.job as Record<string, unknown>, t.name, a.value);
         break;
       case 'symptoms':
         draft.symptoms = a.value.kind === 'many' ? (a.value.values as CaseInput['symptoms']) : [];
         break;
       case 'observations':
-        draft.observations = { ...(draft.observations ?? {}) };
+        draft.observations = { ...draft.observations };
         set(draft.observations as Record<string, unknown>, t.name, a.value);
         break;
       case 'readings':
-        draft.readings = { ...(draft.readings ?? {}) };
+        draft.readings = { ...draft.readings };
         set(draft.readings as Record<string, unknown>, t.name, a.value);
         break;
     }

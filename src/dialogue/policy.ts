@@ -5,7 +5,7 @@
  * Running the rule engine for every question × answer would take seconds, so the rules are
  * compiled once into what the policy needs: for each question and cause, how likely each answer
  * is. A choice answer named by a cause's supporting rule becomes more likely under that cause
- * (a factor e^(2w) for weight w), one named by an opposing rule less likely. A reading is
+ * (a factor e^(3w) for weight w), one named by an opposing rule less likely. A reading is
  * modelled as "out of the healthy band" or not: likely out of band (0.8) for causes whose rules
  * look at the quantities it feeds, unlikely (0.2) for the others.
  *
@@ -37,11 +37,27 @@ export interface Policy {
  * "unknown" is asked later.
  */
 const CHANCE_OF_AN_ANSWER: Record<DialogueQuestion['state'], number> = { observe: 0.85, 'live-test': 0.6, isolated: 0.3 };
+/** Once the machine stands isolated, isolated tests are what can be done, and nothing that needs it running. */
+const CHANCE_WHEN_ISOLATED: Record<DialogueQuestion['state'], number> = { observe: 0.85, 'live-test': 0.1, isolated: 0.85 };
+const CHANCE_OF_A_RUNNING_ANSWER_WHEN_STOPPED = 0.3;
+/** A stopped machine is halfway to an isolated one. */
+const CHANCE_OF_AN_ISOLATED_ANSWER_WHEN_STOPPED = 0.55;
 
-const OUT_OF_BAND_IF_WATCHED = 0.8;
-const OUT_OF_BAND_OTHERWISE = 0.2;
+function chanceOfAnswer(q: DialogueQuestion, presentState: unknown): number {
+  if (presentState === 'isolated') return q.source?.needsRunning ? 0.1 : CHANCE_WHEN_ISOLATED[q.state];
+  if (presentState === 'stopped' || presentState === 'tripped') {
+    if (q.source?.needsRunning) return CHANCE_OF_A_RUNNING_ANSWER_WHEN_STOPPED;
+    if (q.state === 'isolated') return CHANCE_OF_AN_ISOLATED_ANSWER_WHEN_STOPPED;
+  }
+  return CHANCE_OF_AN_ANSWER[q.state];
+}
+
+/** An answer a rule of weight w names is e^(3w) times as likely under its cause. */
+const ANSWER_WEIGHT_SCALE = 3;
+const OUT_OF_BAND_IF_WATCHED = 0.7;
+const OUT_OF_BAND_OTHERWISE = 0.25;
 /** Belief given to a cause no evidence speaks for yet, against scores in (0, 1]. */
-const UNSEEN_CAUSE_BELIEF = 0.03;
+const UNSEEN_CAUSE_BELIEF = 0.01;
 
 /** Leaves a condition reaches, derived facts and shared conditions expanded, each with the sign it holds under. */
 function leavesOf(c: Condition, base: RuleBase, derivers: Map<string, Condition[]>, sign: 1 | -1, seen: Set<string>): { leaf: Leaf; sign: 1 | -1 }[] {
@@ -96,7 +112,7 @@ export function compilePolicy(base: RuleBase, questions: DialogueQuestion[]): Po
             const positive = leaf.operator === 'is' || leaf.operator === 'isOneOf' || leaf.operator === 'equal';
             answers.forEach((a, k) => {
               const holds = named.includes(a) === positive;
-              if (holds) factor[k]! *= Math.exp(2 * ev.weight * sign);
+              if (holds) factor[k]! *= Math.exp(ANSWER_WEIGHT_SCALE * ev.weight * sign);
             });
           }
         }
@@ -158,7 +174,7 @@ export function rankQuestions(policy: Policy, d: Diagnosis, available: (q: Dialo
   const b = belief(d, policy.causeIds);
   return policy.questions
     .filter((cq) => available(cq.question))
-    .map((cq) => ({ question: cq.question, gain: CHANCE_OF_AN_ANSWER[cq.question.state] * informationGain(cq, b) }))
+    .map((cq) => ({ question: cq.question, gain: chanceOfAnswer(cq.question, d.facts['present-state']) * informationGain(cq, b) }))
     .sort((x, y) => y.gain - x.gain || x.question.id.localeCompare(y.question.id));
 }
 

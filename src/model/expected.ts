@@ -330,6 +330,11 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
     const ambient = readings.ambientTemperature ?? res.at;
     if (t < ambient - 5) {
       out.findings.push({ code: `${label}-resistance-low`, says: `hot ${label} resistance ${fmt(hot, 'Ω')} implies ${fmt(t, '°C')}, below ambient: ${lowMeans}` });
+      // The interpoles are part of A1–A2: losing about their share points at them, not the armature.
+      const lost = resistanceAt(cold, res.at, ambient) - hot;
+      if (label === 'armature' && res.interpole !== undefined && lost >= 0.5 * res.interpole) {
+        out.findings.push({ code: 'armature-circuit-lost-interpole-share', says: `the armature circuit reads ${fmt(lost, 'Ω')} less than it should, comparable with the ${fmt(res.interpole, 'Ω')} interpole winding: the interpoles look shorted or bypassed` });
+      }
     }
     if (cls !== undefined) {
       const limit = windingTemperatureLimit(cls);

@@ -34,3 +34,31 @@ export const QUANTITY_LABELS = {
 
 export type QuantityName = keyof typeof QUANTITY_LABELS;
 export const QUANTITY_NAMES = Object.keys(QUANTITY_LABELS) as QuantityName[];
+
+/**
+ * The band a reading sits in on a healthy machine, as measured ÷ the quantity's value. Only
+ * these are flagged in a readings table; the rest are references or derived values. A 10 %
+ * band on expectations is common practice; limits flag on their wrong side only.
+ */
+export const HEALTHY_BANDS: Partial<Record<QuantityName, { low?: number; high?: number }>> = {
+  fieldCurrent: { low: 0.9, high: 1.1 },
+  speed: { low: 0.9, high: 1.1 },
+  ratedArmatureVoltage: { low: 0.9, high: 1.06 },
+  ratedFieldVoltage: { low: 0.9, high: 1.06 },
+  ratedFieldCurrent: { high: 1.1 },
+  ratedArmatureCurrent: { high: 1.05 },
+  cableDrop: { low: 0.95 },
+  speedReverse: { low: 0.95, high: 1.05 },
+  tachoVoltage: { low: 0.9, high: 1.1 },
+  currentLimit: { low: 0.9 },
+  brushLength: { low: 0.4 },
+  brushSpringPressure: { low: 1 },
+  commutatorRunout: { high: 1 },
+  noLoadCurrent: { high: 1 },
+};
+
+export function outOfBand(name: QuantityName, ratio: number | null): boolean {
+  const band = HEALTHY_BANDS[name];
+  if (!band || ratio === null) return false;
+  return (band.low !== undefined && ratio < band.low) || (band.high !== undefined && ratio > band.high);
+}

@@ -4,7 +4,7 @@ import { formatExpectation } from './format-expect.js';
 
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'LIVE TEST (qualified person)', isolated: 'isolated' } as const;
 
-export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean } = {}): string {
+export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?: number } = {}): string {
   const parts: string[] = [];
   if (d.warnings.length) parts.push(d.warnings.map((w) => `!! ${w.says}`).join('\n'));
   if (d.causes.length === 0) parts.push('No cause stands out from what is known. Add readings or observations and run again.');
@@ -17,15 +17,16 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean } = {})
           .join('\n'),
     );
   }
-  if (opts.readings !== false) parts.push('Readings against a healthy machine:\n' + formatExpectation(d.expectation));
+  if (opts.readings !== false) parts.push('Readings against a healthy machine:\n' + formatExpectation(d.expectation, opts.width));
   if (d.checks.length) {
+    const title = new Map(d.causes.map((c) => [c.id, c.title]));
     const lines: string[] = [];
     d.checks.forEach((c, k) => {
       if (c.id === d.isolation.beforeCheck) {
         lines.push('   Before the next check, isolate:');
         d.isolation.steps.forEach((s, j) => lines.push(`     ${String.fromCharCode(97 + j)}. ${s}`));
       }
-      lines.push(`${String(k + 1).padStart(2)}. ${c.title} [${STATE_WORDS[c.state]}, ~${c.minutes} min] — for ${c.causes.join(', ')}`);
+      lines.push(`${String(k + 1).padStart(2)}. ${c.title} [${STATE_WORDS[c.state]}, ~${c.minutes} min] — for: ${c.causes.map((id) => title.get(id) ?? id).join('; ')}`);
       lines.push(`      ${c.how}`);
     });
     parts.push('Checks, in order:\n' + lines.join('\n'));

@@ -17,7 +17,7 @@ describe('dctriage expect', () => {
   it('prints expected against measured as a table', () => {
     const r = runCli(['expect', demo]);
     expect(r.code).toBe(0);
-    expect(r.stdout).toMatch(/^speed\s+\d+\s+2010\s+\d+ %\s+rpm/m);
+    expect(r.stdout).toMatch(/^speed\s+\d+\s+2010\s+\d+ %\s+!\s+rpm/m);
     expect(r.stdout).toContain('fieldCurrent');
     expect(r.stderr).toBe('');
   });

@@ -1,0 +1,134 @@
+/**
+ * The dialogue as a pure reducer: (state, event) → state. What to ask next is derived from the
+ * answers and the latest diagnosis (see `currentStep`), never stored, so going back and changing
+ * an answer needs no bookkeeping. Diagnosis runs outside (it is asynchronous) and comes back as
+ * an event tagged with the answers' version it was made for.
+ */
+import type { Diagnosis } from '../engine/diagnose.js';
+import { parseAnswer, cleanInput } from './answers.js';
+import { nextStep, type Flow, type Next } from './flow.js';
+import { jobFromAnswers, parseDraft, type Answer } from './job.js';
+
+export type Panel = 'why' | 'causes' | 'safety' | 'help';
+
+/** The transcript: append-only, so a terminal can print each entry once and never redraw it. */
+export type LogEntry =
+  | { kind: 'answer'; answer: Answer }
+  | { kind: 'withdrawn'; answer: Answer }
+  | { kind: 'result'; diagnosis: Diagnosis; because: string };
+
+export interface DialogueState {
+  /** `finishing`: the questions are over and the result waits for the diagnosis of the last answers. */
+  phase: 'notice' | 'asking' | 'finishing' | 'result';
+  answers: Answer[];
+  log: LogEntry[];
+  /** Bumped whenever the answers change; a diagnosis is current only for its version. */
+  version: number;
+  diagnosis?: { version: number; value: Diagnosis } | undefined;
+  /** One line saying why the last input was not taken; the question is asked again. */
+  error?: string | undefined;
+  panel?: Panel | undefined;
+  /** Why the questions ended. */
+  endedBecause?: string | undefined;
+  /** The fitter asked to save the job; the shell writes it and answers with `saved`. */
+  saveRequested?: boolean | undefined;
+  /** What the last save said: where the file went, or why it could not be written. */
+  saved?: string | undefined;
+}
+
+export type DialogueEvent =
+  | { type: 'begin' }
+  | { type: 'input'; text: string; at: string }
+  | { type: 'diagnosed'; version: number; diagnosis: Diagnosis }
+  | { type: 'saved'; message: string };
+
+export interface DialogueContext {
+  flow: Flow;
+  machineFile?: unknown;
+}
+
+/** Words typed at any prompt that steer the dialogue rather than answer. */
+export const COMMANDS = {
+  back: 'change the last answer',
+  why: 'why this question',
+  causes: 'the ranking with its evidence',
+  safety: 'the safety notice',
+  done: 'finish now and see the result',
+  save: 'save the job as a case file (once the result is shown)',
+  help: 'these commands',
+} as const;
+
+export function initialState(answers: Answer[] = []): DialogueState {
+  return { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0 };
+}
+
+/** Ends the questions: the result shows at once if the diagnosis is current, else when it comes. */
+function finish(state: DialogueState, because: string): DialogueState {
+  const d = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
+  if (!d) return { ...state, phase: 'finishing', endedBecause: because };
+  return { ...state, phase: 'result', endedBecause: because, log: [...state.log, { kind: 'result', diagnosis: d, because }] };
+}
+
+export function draftOf(state: DialogueState, ctx: DialogueContext) {
+  return jobFromAnswers(state.answers, ctx.machineFile);
+}
+
+/** What the dialogue is doing now, derived from the answers and the current diagnosis. */
+export function currentStep(state: DialogueState, ctx: DialogueContext): Next {
+  const parsed = parseDraft(draftOf(state, ctx));
+  const diagnosis = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
+  return nextStep(ctx.flow, {
+    answers: state.answers,
+    machineGiven: ctx.machineFile !== undefined,
+    diagnosis,
+    job: parsed.ok ? parsed.job : undefined,
+  });
+}
+
+export function reduce(state: DialogueState, event: DialogueEvent, ctx: DialogueContext): DialogueState {
+  switch (event.type) {
+    case 'begin':
+      return state.phase === 'notice' ? { ...state, phase: 'asking' } : state;
+    case 'diagnosed': {
+      if (event.version !== state.version) return state; // made for answers since changed
+      const next: DialogueState = { ...state, diagnosis: { version: event.version, value: event.diagnosis } };
+      if (next.phase === 'finishing') return finish(next, next.endedBecause ?? 'you asked for the result');
+      if (next.phase === 'asking') {
+        const step = currentStep(next, ctx);
+        if (step.kind === 'done') return finish(next, step.why);
+      }
+      return next;
+    }
+    case 'input':
+      return onInput(state, event.text, event.at, ctx);
+    case 'saved':
+      return { ...state, saveRequested: false, saved: event.message };
+  }
+}
+
+function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueContext): DialogueState {
+  const text = cleanInput(typed);
+  const word = text.toLowerCase();
+  const base = { ...state, error: undefined, panel: undefined };
+  if (state.phase === 'notice') return { ...base, phase: 'asking' };
+  if (word === 'back') {
+    const last = state.answers.at(-1);
+    if (!last) return { ...base, error: 'nothing to go back to yet' };
+    return withAnswers({ ...base, phase: 'asking', endedBecause: undefined, log: [...state.log, { kind: 'withdrawn', answer: last }] }, state.answers.slice(0, -1));
+  }
+  if (word === 'why' || word === 'causes' || word === 'safety' || word === 'help') return { ...base, panel: word };
+  if (word === 'save') return state.phase === 'result' ? { ...base, saveRequested: true } : { ...base, error: 'save comes with the result: type done to finish first' };
+  if (word === 'done') return state.phase === 'asking' ? finish(base, 'you asked for the result') : base;
+  if (state.phase === 'finishing') return { ...base, error: 'the result is on its way: a moment' };
+  if (state.phase === 'result') return { ...base, error: 'the questions are finished: type save, back to change the last answer, or press Ctrl-C to leave' };
+  const step = currentStep(state, ctx);
+  if (step.kind !== 'ask') return { ...base, error: 'still working out the next question: a moment' };
+  const parsed = parseAnswer(step.question, text);
+  if (!parsed.ok) return { ...base, error: parsed.reason };
+  const answer: Answer = { questionId: step.question.id, target: step.question.target, value: parsed.value, shown: parsed.shown, at };
+  return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }] }, [...state.answers, answer]);
+}
+
+function withAnswers(state: DialogueState, answers: Answer[]): DialogueState {
+  return { ...state, answers, version: state.version + 1 };
+}

@@ -1,0 +1,28 @@
+/** "Why this question": the leading causes it tells apart, from the compiled policy. */
+import type { Diagnosis } from '../engine/diagnose.js';
+import type { Flow } from './flow.js';
+import type { DialogueQuestion } from './questions.js';
+import { belief, informationGain } from './policy.js';
+
+export function whyAsked(q: DialogueQuestion, flow: Flow, d: Diagnosis | undefined): string {
+  if (q.opening) {
+    if (q.id === 'present-state' || q.id === 'drive-fault') return 'Asked first: what the machine is doing and what the drive shows decide what is safe to ask next (after a fault trip nothing is run again to look).';
+    return 'Part of the machine description: the model needs it to work out what a healthy machine would read.';
+  }
+  const cq = flow.policy.questions.find((c) => c.question.id === q.id);
+  if (!cq || !d) return 'Asked to narrow the causes.';
+  const b = belief(d, flow.policy.causeIds);
+  const title = new Map(flow.base.causes.map((c) => [c.id, c.title]));
+  const leaders = [...b].sort((x, y) => y[1] - x[1]).slice(0, 5);
+  const label = (k: number) => {
+    const a = cq.answers[k]!;
+    if (q.answer.kind === 'choice') return q.answer.options.find((o) => o.value === a)?.label ?? a;
+    return a === 'out-of-band' ? 'a reading away from a healthy machine' : 'a healthy reading';
+  };
+  const lines = leaders.map(([id]) => {
+    const l = cq.likelihood.get(id) ?? [];
+    const best = l.indexOf(Math.max(...l));
+    return `  ${title.get(id)}: most likely ${label(best)} (${Math.round((l[best] ?? 0) * 100)} %)`;
+  });
+  return [`This answer is worth about ${informationGain(cq, b).toFixed(2)} bits among the leading causes:`, ...lines].join('\n');
+}

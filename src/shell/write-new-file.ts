@@ -1,0 +1,37 @@
+/**
+ * Writes a file that never replaces another: the content goes to a temporary file first (and
+ * is synced), then is linked to the final name, which fails if that name exists; the next
+ * suffix (-2, -3, …) is tried. An interrupted write leaves no half-written file under a final name.
+ */
+import { closeSync, fsyncSync, linkSync, openSync, unlinkSync, writeSync } from 'node:fs';
+import { join } from 'node:path';
+
+export interface Written {
+  file: string;
+  /** 1 for the plain name, 2 for "-2", and so on. */
+  suffix: number;
+}
+
+export function writeNewFile(dir: string, stem: string, ext: string, content: string | ((suffix: number) => string), maxTries = 1000): Written {
+  for (let n = 1; n <= maxTries; n++) {
+    const name = n === 1 ? `${stem}${ext}` : `${stem}-${n}${ext}`;
+    const text = typeof content === 'function' ? content(n) : content;
+    const tmp = join(dir, `.${name}.${process.pid}.${Date.now()}.tmp`);
+    const fd = openSync(tmp, 'wx', 0o644);
+    try {
+      writeSync(fd, text);
+      fsyncSync(fd);
+    } finally {
+      closeSync(fd);
+    }
+    try {
+      linkSync(tmp, join(dir, name));
+      return { file: join(dir, name), suffix: n };
+    } catch (e) {
+      if ((e as NodeJS.ErrnoException).code !== 'EEXIST') throw e;
+    } finally {
+      unlinkSync(tmp);
+    }
+  }
+  throw new Error(`no free name for ${stem}${ext} after ${maxTries} tries`);
+}

@@ -1,0 +1,136 @@
+/**
+ * The fitter's dialogue: the settled transcript in <Static>, a short live area with the leading
+ * causes, the question, its choices, the input line and a footer of commands. All decisions are
+ * the reducer's; this only renders state and runs the diagnosis when the answers change.
+ */
+import { useEffect, useMemo, useReducer, useRef } from 'react';
+import { Box, Static, Text, useApp, useStdout } from 'ink';
+import type { Engine } from 'json-rules-engine';
+import { diagnose } from '../engine/diagnose.js';
+import { parseDraft } from '../dialogue/job.js';
+import { COMMANDS, currentStep, draftOf, initialState, reduce, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
+import type { Answer } from '../dialogue/job.js';
+import type { Diagnosis } from '../engine/diagnose.js';
+import { formatDiagnosis } from '../shell/format-diagnosis.js';
+import { whyAsked } from '../dialogue/why.js';
+import { useLineInput } from './use-line-input.js';
+
+export interface DialogueProps {
+  ctx: DialogueContext;
+  engine: Engine;
+  safetyNotice: string;
+  initialAnswers?: Answer[];
+  /** Called after every change of answers: the shell saves the session. */
+  onAnswers?: (answers: Answer[]) => void;
+  /** Saves the job; returns the words to show (where it went, or why not). */
+  onSave?: (answers: Answer[]) => string;
+  onInterrupt?: () => void;
+  color?: boolean;
+}
+
+interface Line {
+  key: string;
+  text: string;
+  tone?: 'warning' | 'muted' | 'answer';
+}
+
+const now = () => new Date().toISOString();
+
+export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers, onSave, onInterrupt, color = true }: DialogueProps) {
+  const { exit } = useApp();
+  const { stdout } = useStdout();
+  const width = Math.max(40, stdout?.columns ?? 80);
+  const [state, dispatch] = useReducer((s: DialogueState, e: Parameters<typeof reduce>[1]) => reduce(s, e, ctx), initialAnswers, initialState);
+  const step = useMemo(() => currentStep(state, ctx), [state, ctx]);
+  const typed = useLineInput(
+    (line) => dispatch({ type: 'input', text: line, at: now() }),
+    () => (onInterrupt ? onInterrupt() : exit(new Error('interrupted'))),
+  );
+
+  // Save after every answer, and diagnose the answers as they now stand.
+  const firstRender = useRef(true);
+  useEffect(() => {
+    if (!firstRender.current || initialAnswers?.length) onAnswers?.(state.answers);
+    firstRender.current = false;
+    const parsed = parseDraft(draftOf(state, ctx));
+    if (!parsed.ok) return;
+    let live = true;
+    const version = state.version;
+    void diagnose(parsed.job, ctx.flow.base, engine).then((d) => live && dispatch({ type: 'diagnosed', version, diagnosis: d }));
+    return () => {
+      live = false;
+    };
+  }, [state.version]);
+
+  const diagnosis = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
+  useEffect(() => {
+    if (state.saveRequested) dispatch({ type: 'saved', message: onSave ? onSave(state.answers) : 'saving is not available here' });
+  }, [state.saveRequested]);
+
+  const tone = (t: Line['tone']): { color?: string } => {
+    const c = !color ? undefined : t === 'warning' ? 'red' : t === 'muted' ? 'gray' : t === 'answer' ? 'cyan' : undefined;
+    return c ? { color: c } : {};
+  };
+  const prompt = (id: string) => ctx.flow.all.get(id)?.prompt ?? id;
+  const transcript: Line[] = [
+    { key: 'notice', text: safetyNotice, tone: 'warning' },
+    ...state.log.map((e, k): Line => {
+      if (e.kind === 'answer') return { key: `l${k}`, text: `${prompt(e.answer.questionId)}  → ${e.answer.shown}`, tone: 'answer' };
+      if (e.kind === 'withdrawn') return { key: `l${k}`, text: `↩ taken back: ${prompt(e.answer.questionId)} (was ${e.answer.shown})`, tone: 'muted' };
+      return { key: `l${k}`, text: `${formatDiagnosis(e.diagnosis, { width })}\n\nQuestions ended: ${e.because}.` };
+    }),
+  ];
+  const leaders = diagnosis?.causes.slice(0, 3) ?? [];
+
+  return (
+    <Box flexDirection="column">
+      <Static items={transcript}>{(l) => <Text key={l.key} {...tone(l.tone)}>{l.text}</Text>}</Static>
+      {state.phase === 'notice' && <Text>Press Enter to begin.</Text>}
+      {state.phase === 'asking' && diagnosis && diagnosis.warnings.length > 0 && (
+        <Box flexDirection="column">{diagnosis.warnings.map((w) => <Text key={w.id} {...(color ? { color: 'red' } : {})}>!! {w.says}</Text>)}</Box>
+      )}
+      {state.phase === 'asking' && leaders.length > 0 && (
+        <Text wrap="truncate-end">Leading: {leaders.map((c, k) => `${k + 1} ${c.title} ${c.score.toFixed(2)}`).join(' · ')}</Text>
+      )}
+      {state.panel && <Panel which={state.panel} state={state} ctx={ctx} diagnosis={diagnosis} safetyNotice={safetyNotice} width={width} />}
+      {state.phase === 'asking' && step.kind === 'ask' && (
+        <Box flexDirection="column">
+          <Text bold>? {step.question.prompt}{step.question.state === 'live-test' ? '  [LIVE TEST: qualified person]' : step.question.state === 'isolated' ? '  [needs isolation]' : ''}{step.question.answer.kind === 'quantity' ? `  (default unit ${unitOf(step.question.answer.dimension)})` : ''}</Text>
+          {(step.question.answer.kind === 'choice' || step.question.answer.kind === 'many') && (
+            <Box flexWrap="wrap" columnGap={2}>
+              {step.question.answer.options.map((o, k) => <Text key={o.value}>{k + 1} {o.label}</Text>)}
+            </Box>
+          )}
+          {step.question.state === 'isolated' && !state.answers.some((a) => ctx.flow.all.get(a.questionId)?.state === 'isolated') && (
+            <Text {...(color ? { color: 'yellow' } : {})}>Isolate first: {ctx.flow.base.safety.isolation.steps.map((s, k) => `${k + 1}. ${s.id}`).join('  ')} — type safety for the full steps.</Text>
+          )}
+        </Box>
+      )}
+      {state.phase === 'asking' && step.kind === 'needs-diagnosis' && <Text>Working out the next question…</Text>}
+      {state.phase === 'finishing' && <Text>Working out the result…</Text>}
+      {state.phase === 'result' && <Text>Type save to keep the job as a case file, back to change the last answer, or press Ctrl-C to leave (the session is kept).</Text>}
+      {state.saved && <Text>{state.saved}</Text>}
+      {state.error && <Text {...(color ? { color: 'red' } : {})}>✗ {state.error}</Text>}
+      {state.phase !== 'notice' && <Text>&gt; {typed}</Text>}
+      <Text {...(color ? { color: 'gray' } : {})} wrap="truncate-end">Enter alone = unknown · back · why · causes · safety · done · help · Ctrl-C quits (saved)</Text>
+    </Box>
+  );
+}
+
+function unitOf(d: string): string {
+  return ({ voltage: 'V', signedVoltage: 'V', current: 'A', resistance: 'Ω', insulation: 'MΩ', power: 'W', speed: 'rpm', temperature: '°C', pressure: 'kPa', length: 'mm' } as Record<string, string>)[d] ?? '';
+}
+
+function Panel({ which, state, ctx, diagnosis, safetyNotice, width }: { which: string; state: DialogueState; ctx: DialogueContext; diagnosis: Diagnosis | undefined; safetyNotice: string; width: number }) {
+  if (which === 'safety') {
+    const iso = ctx.flow.base.safety.isolation;
+    return <Text>{safetyNotice}{'\n'}{iso.steps.map((s, k) => `${k + 1}. ${s.says}`).join('\n')}{'\n'}{iso.dcSpecific.map((s) => `- ${s.says}`).join('\n')}{'\n'}{iso.prevails}</Text>;
+  }
+  if (which === 'help') return <Text>{Object.entries(COMMANDS).map(([w, says]) => `${w.padEnd(7)} ${says}`).join('\n')}{'\n'}Choices: their number or word. Quantities: as the meter reads, e.g. 14,5 V or 1450 rpm.</Text>;
+  if (which === 'causes') {
+    if (!diagnosis) return <Text>No ranking yet: the machine's connection is needed first.</Text>;
+    return <Text>{formatDiagnosis({ ...diagnosis, checks: [] }, { readings: false, width })}</Text>;
+  }
+  const step = currentStep(state, ctx);
+  return <Text>{step.kind === 'ask' ? whyAsked(step.question, ctx.flow, diagnosis) : 'No question is waiting.'}</Text>;
+}

@@ -1,0 +1,36 @@
+/** Rendering the dialogue in tests and typing into it. */
+import { render } from 'ink-testing-library';
+import { buildFlow } from '../../src/dialogue/flow.js';
+import { buildEngine } from '../../src/engine/run-rules.js';
+import type { Answer } from '../../src/dialogue/job.js';
+import { Dialogue } from '../../src/ui/Dialogue.js';
+import { builtInRules } from './rules.js';
+
+export const settle = (ms = 25) => new Promise((r) => setTimeout(r, ms));
+
+export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: unknown } = {}) {
+  const base = builtInRules();
+  const flow = buildFlow(base);
+  const saved: Answer[][] = [];
+  const app = render(
+    <Dialogue
+      ctx={{ flow, machineFile: opts.machineFile }}
+      engine={buildEngine(base)}
+      safetyNotice={base.safety.notice}
+      initialAnswers={opts.initialAnswers ?? []}
+      onAnswers={(a) => saved.push(a)}
+      color={false}
+    />,
+  );
+  /** Types a line and presses Enter, then waits for the dialogue (and its diagnosis) to settle. */
+  const type = async (line: string) => {
+    await settle();
+    app.stdin.write(line);
+    await settle();
+    app.stdin.write('\r');
+    await settle(60);
+  };
+  /** Everything printed so far: the settled transcript and the live area. */
+  const screen = () => app.frames.join('\n');
+  return { ...app, type, screen, saved, flow };
+}
