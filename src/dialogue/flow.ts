@@ -67,6 +67,8 @@ export function nextStep(flow: Flow, p: Progress): Next {
     // After a fault trip or a runaway warning nothing is asked that means running it again.
     !(safetyFirst && (q.source?.needsRunning || q.state === 'live-test')) &&
     (q.target.section !== 'readings' || readingIsUsable(p.job, q.target.name));
+  const first = flow.adaptive.find((q) => d.askFirst.has(q.id) && available(q));
+  if (first) return { kind: 'ask', question: first };
   const choice = chooseQuestion(flow.policy, d, available);
   return choice ? { kind: 'ask', question: choice.question, gain: choice.gain } : { kind: 'done', why: 'no remaining question would change the order' };
 }

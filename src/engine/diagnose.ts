@@ -47,6 +47,8 @@ export interface Diagnosis {
   facts: Facts;
   /** Questions whose askWhen condition holds for this job. */
   askable: Set<string>;
+  /** Questions to ask before the policy's choices (their askFirstWhen holds). */
+  askFirst: Set<string>;
 }
 
 /** How many of the leading causes contribute checks. */
@@ -56,7 +58,7 @@ export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 
 
 export async function diagnose(job: JobInput, base: RuleBase, engine: Engine): Promise<Diagnosis> {
   const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
-  const { facts, fired, askable } = await runToFixpoint(engine, base, jobFacts(job, expectation));
+  const { facts, fired, askable, askFirst } = await runToFixpoint(engine, base, jobFacts(job, expectation));
   // A derived fact is explained by what the rule that derived it saw, recursively.
   const derivedBy = new Map(fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])));
   const words = new Map<string, string>();
@@ -134,5 +136,6 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: Engine): P
     expectation,
     facts,
     askable,
+    askFirst,
   };
 }

@@ -20,12 +20,15 @@ export interface RunOutcome {
   fired: Fired[];
   /** Questions whose askWhen held. */
   askable: Set<string>;
+  /** Questions whose askFirstWhen held. */
+  askFirst: Set<string>;
   iterations: number;
 }
 
 export class RuleCycleError extends Error {}
 
 const ASK_PREFIX = 'ask:';
+const ASK_FIRST_PREFIX = 'ask-first:';
 
 const known = (a: unknown) => a !== undefined && a !== null;
 
@@ -44,6 +47,7 @@ export function buildEngine(base: RuleBase): Engine {
   // A question's askWhen is a rule of its own, so the engine decides it along with the rest.
   for (const q of base.questions) {
     if (q.askWhen) engine.addRule({ name: `${ASK_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askWhen), event: { type: 'askable' } });
+    if (q.askFirstWhen) engine.addRule({ name: `${ASK_FIRST_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askFirstWhen), event: { type: 'ask-first' } });
   }
   return engine;
 }
@@ -59,12 +63,14 @@ export async function runToFixpoint(engine: Engine, base: RuleBase, start: Facts
   for (let iteration = 1; iteration <= limit; iteration++) {
     const { results } = await engine.run(facts);
     const names = results.map((r: RuleResult) => String(r.name));
-    const askable = new Set(names.filter((n) => n.startsWith(ASK_PREFIX)).map((n) => n.slice(ASK_PREFIX.length)));
+    const withPrefix = (prefix: string) => new Set(names.filter((n) => n.startsWith(prefix)).map((n) => n.slice(prefix.length)));
+    const askable = withPrefix(ASK_PREFIX);
+    const askFirst = withPrefix(ASK_FIRST_PREFIX);
     // Rule names are unique in a loaded rule base (the loader checks it).
     const fired = results.filter((r) => byName.has(String(r.name))).map((r: RuleResult) => ({ rule: byName.get(String(r.name))!, tree: r.toJSON(false).conditions }));
     const added: Facts = {};
     for (const { rule } of fired) if (rule.kind === 'derive' && facts[rule.derive] !== true) added[rule.derive] = true;
-    if (Object.keys(added).length === 0) return { facts, fired: sortByName(fired), askable, iterations: iteration };
+    if (Object.keys(added).length === 0) return { facts, fired: sortByName(fired), askable, askFirst, iterations: iteration };
     facts = { ...facts, ...added };
   }
   throw new RuleCycleError(`rules did not settle after ${limit} runs: derived facts keep changing`);

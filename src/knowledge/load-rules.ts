@@ -140,6 +140,7 @@ export function crossCheck(base: RuleBase): Issue[] {
     if (q.answer.kind === 'choice' && !(q.answer.observation in OBSERVATIONS)) issues.push(issue(f('questions.json'), `${where}.answer.observation`, `"${q.answer.observation}" is not an observation of dc-case/1`));
     if (q.answer.kind === 'quantity' && !(q.answer.reading in READING_FIELDS)) issues.push(issue(f('questions.json'), `${where}.answer.reading`, `"${q.answer.reading}" is not a reading of dc-case/1`));
     if (q.askWhen) issues.push(...checkCondition(q.askWhen, f('questions.json'), `${where}.askWhen`, derived, base.conditions));
+    if (q.askFirstWhen) issues.push(...checkCondition(q.askFirstWhen, f('questions.json'), `${where}.askFirstWhen`, derived, base.conditions));
   });
   const cycle = findDeriveCycle(base);
   if (cycle) issues.push({ code: 'cycle', file: cycle.file, path: cycle.at, message: `derived facts depend on each other in a cycle: ${cycle.path.join(' → ')}` });

@@ -91,6 +91,8 @@ export const questionSchema = z.strictObject({
   answer,
   /** Ask only when this holds (e.g. a controlled drive). */
   askWhen: conditionSchema.optional(),
+  /** When this holds, asked before anything the policy picks: the answer decides what is safe. */
+  askFirstWhen: conditionSchema.optional(),
   /** Answering needs the machine running: not asked after a fault trip or a runaway warning. */
   needsRunning: z.boolean().optional(),
 });
