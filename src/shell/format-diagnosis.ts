@@ -13,7 +13,7 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
       'Likely causes:\n' +
         d.causes
           .slice(0, 6)
-          .map((c, k) => `${k + 1}. ${c.title} (${c.id}) — score ${c.score.toFixed(2)}\n${c.evidence.map((e) => `     ${e.weight > 0 ? '+' : '−'} ${e.says}`).join('\n')}`)
+          .map((c, k) => `${k + 1}. ${c.title} (${c.id}) — score ${c.score.toFixed(2)}\n${distinct(c.evidence.map((e) => `     ${e.weight > 0 ? '+' : '−'} ${e.says}`)).join('\n')}`)
           .join('\n'),
     );
   }
@@ -32,4 +32,9 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
     parts.push('Checks, in order:\n' + lines.join('\n'));
   }
   return parts.join('\n\n');
+}
+
+/** Two rules can see the same thing: say it once. */
+function distinct(lines: string[]): string[] {
+  return [...new Set(lines)];
 }
