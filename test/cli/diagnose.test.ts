@@ -47,3 +47,23 @@ describe('dctriage cases check', () => {
     expect(r.code).toBe(j.cases.some((c: { rank: number }) => c.rank === 0 || c.rank > 3) ? 1 : 0);
   });
 });
+
+describe('dctriage with no terminal', () => {
+  it('says the dialogue needs a terminal and points to diagnose, exit 2', () => {
+    const r = runCli([]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toContain('the dialogue needs a terminal');
+    expect(r.stderr).toContain('dctriage diagnose FILE');
+  });
+});
+
+describe('dctriage diagnose --adaptive', () => {
+  it('lists the questions the dialogue would have asked', () => {
+    const r = runCli(['diagnose', demo, '--adaptive', '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.questionsAsked.slice(0, 2)).toEqual(['present-state', 'drive-fault']);
+    expect(j.causes[0].id).toBe('field-weak');
+  });
+});
