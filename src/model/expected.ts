@@ -253,9 +253,13 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
     ia = Math.max(0, readings.lineCurrent - fieldShare);
   }
   const vm = readings.armatureVoltage;
+  /** Below this share of rated voltage the machine is not energised: no speed, and no runaway, to compute. */
+  const deadTerminals = vm !== undefined && np.armatureVoltage !== undefined && vm < 0.05 * np.armatureVoltage;
+  if (deadTerminals) out.findings.push({ code: 'no-terminal-voltage', says: `${fmt(vm, 'V')} at the terminals: the machine is not energised` });
 
   // --- speed -------------------------------------------------------------------------------
   const speedAt = (fieldA: number | undefined, label: string, name: QuantityName, measured: number | undefined) => {
+    if (deadTerminals) return;
     if (kPhiRated === undefined || vm === undefined || ia === undefined || ratedIa === undefined) {
       const needs: string[] = [];
       if (kPhiRated === undefined) needs.push('the machine constant (see machineConstant)');
@@ -377,7 +381,11 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
     add('speedReverse', { value: readings.speed, unit: 'rpm', measured: readings.speedReverse, formula: 'speed the other way at the same set-point should equal the forward speed' });
   }
   if (machine.tachoVoltsPer1000Rpm !== undefined && readings.speed !== undefined && readings.tachoVoltage !== undefined) {
-    add('tachoVoltage', { value: (machine.tachoVoltsPer1000Rpm * readings.speed) / 1000, unit: 'V', measured: readings.tachoVoltage, formula: 'tacho V/1000 rpm × measured speed' });
+    const expectedTacho = (machine.tachoVoltsPer1000Rpm * readings.speed) / 1000;
+    add('tachoVoltage', { value: expectedTacho, unit: 'V', measured: readings.tachoVoltage, formula: 'tacho V/1000 rpm × measured speed' });
+    if (expectedTacho > 0 && readings.tachoVoltage < -0.2 * expectedTacho) {
+      out.findings.push({ code: 'tacho-polarity-reversed', says: `tacho reads ${fmt(readings.tachoVoltage, 'V')} where ${fmt(expectedTacho, 'V')} is expected: its polarity is reversed against the rotation` });
+    }
   }
   if (readings.currentLimitSetting !== undefined && ratedIa !== undefined) {
     add('currentLimit', { value: ratedIa, unit: 'A', measured: readings.currentLimitSetting, formula: 'drive current limit against rated armature current' });

@@ -163,3 +163,19 @@ describe('model invariants (property tests)', () => {
     }));
   });
 });
+
+describe('findings from the readings', () => {
+  const machine: ModelInput['machine'] = { connection: 'shunt', nameplate: { armatureVoltage: 220, armatureCurrent: 30, speed: 1450, fieldCurrent: 0.9 }, resistances: { armature: 0.5 } };
+
+  it('says a machine with no voltage at its terminals is not energised, not that it runs away', () => {
+    const e = computeExpectations({ machine, readings: { armatureVoltage: 0, armatureCurrent: 0 } });
+    expect(e.findings.map((f) => f.code)).toEqual(['no-terminal-voltage']);
+    expect(e.quantities.speed).toBeUndefined();
+  });
+
+  it('finds a tacho whose polarity is reversed against the rotation', () => {
+    const e = computeExpectations({ machine: { ...machine, tachoVoltsPer1000Rpm: 60 }, readings: { speed: 1000, tachoVoltage: -59 } });
+    expect(e.quantities.tachoVoltage).toMatchObject({ value: 60, measured: -59 });
+    expect(e.findings.map((f) => f.code)).toContain('tacho-polarity-reversed');
+  });
+});
