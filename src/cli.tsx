@@ -39,6 +39,8 @@ import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
 import { USAGE } from './shell/help.js';
+import { addCase, adoptDraft, checkRules, draftRule, type Outcome } from './shell/lead-commands.js';
+import { resolveKnowledge } from './shell/settings.js';
 
 /** The built-in rule folder ships beside the bundle (dist/../rules). */
 const BUILT_IN_RULES = fileURLToPath(new URL('../rules/', import.meta.url));
@@ -71,6 +73,9 @@ async function main(argv: string[]): Promise<number> {
         adaptive: { type: 'boolean' },
         machine: { type: 'string' },
         session: { type: 'string' },
+        cases: { type: 'string' },
+        'from-case': { type: 'string' },
+        force: { type: 'boolean' },
       },
     });
   } catch (e) {
@@ -115,30 +120,32 @@ async function main(argv: string[]): Promise<number> {
       }
       return 0;
     }
-    case 'cases': {
-      if (rest[0] !== 'check') throw new UsageError('cases takes a subcommand: dctriage cases check [DIR]');
-      const dir = rest[1] ?? BUILT_IN_CASES;
-      const base = loadRuleBase(opts.rules ?? BUILT_IN_RULES);
+    case 'cases':
+      if (rest[0] === 'add') {
+        if (!rest[1]) throw new UsageError('cases add needs a case file: dctriage cases add FILE');
+        const k = knowledge(opts, false);
+        if (!k.ok) return fail(k.issues);
+        const base = loadRuleBase(k.value.rules);
+        if (!base.ok) return fail(base.issues);
+        return print(addCase(rest[1], k.value.cases, base.value, new Date().toISOString().slice(0, 10)));
+      }
+      if (rest[0] !== 'check') throw new UsageError('cases takes a subcommand: dctriage cases check [DIR] | dctriage cases add FILE');
+      return casesCheck(rest[1], opts);
+    case 'rules': {
+      const k = knowledge(opts, rest[0] === 'check');
+      if (!k.ok) return fail(k.issues);
+      if (rest[0] === 'check') return print(await checkRules(k.value.rules, k.value.cases, !!opts.json));
+      const base = loadRuleBase(k.value.rules);
       if (!base.ok) return fail(base.issues);
-      let files: string[];
-      try {
-        files = readdirSync(dir).filter((f) => f.endsWith('.json')).sort().map((f) => join(dir, f));
-      } catch {
-        return fail([{ code: 'unreadable', file: dir, path: '', message: 'cases folder cannot be read' }]);
+      if (rest[0] === 'draft') {
+        if (!opts['from-case']) throw new UsageError('rules draft needs --from-case FILE');
+        return print(await draftRule(opts['from-case'], k.value.rules, k.value.cases, base.value, !!opts.json));
       }
-      let runner: CaseRunner | undefined;
-      if (opts.adaptive) {
-        const flow = buildFlow(base.value);
-        const engine = buildEngine(base.value);
-        runner = async (_c, file) => {
-          const r = await replayCase(rawCase(file), flow, engine);
-          return { ranked: r.diagnosis.causes.map((x) => x.id), questionsAsked: r.questionsAsked };
-        };
+      if (rest[0] === 'adopt') {
+        if (!rest[1]) throw new UsageError('rules adopt needs a draft file: dctriage rules adopt DRAFT');
+        return print(await adoptDraft(rest[1], k.value.rules, k.value.cases, base.value, !!opts.force));
       }
-      const report = await checkCases(files, base.value, runner);
-      if (!report.ok) return fail(report.issues);
-      out(opts.json ? JSON.stringify(report.value, null, 2) : formatCaseCheck(report.value));
-      return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
+      throw new UsageError('rules takes a subcommand: check, draft --from-case FILE, adopt DRAFT');
     }
     case undefined:
     case 'resume':
@@ -146,6 +153,44 @@ async function main(argv: string[]): Promise<number> {
     default:
       throw new UsageError(`unknown command "${command}"`);
   }
+}
+
+async function casesCheck(dirArg: string | undefined, opts: { rules?: string | undefined; cases?: string | undefined; json?: boolean | undefined; adaptive?: boolean | undefined }): Promise<number> {
+  const k = knowledge(opts, true);
+  if (!k.ok) return fail(k.issues);
+  const dir = dirArg ?? k.value.cases;
+  const base = loadRuleBase(k.value.rules);
+  if (!base.ok) return fail(base.issues);
+  let files: string[];
+  try {
+    files = readdirSync(dir).filter((f) => f.endsWith('.json')).sort().map((f) => join(dir, f));
+  } catch {
+    return fail([{ code: 'unreadable', file: dir, path: '', message: 'cases folder cannot be read' }]);
+  }
+  let runner: CaseRunner | undefined;
+  if (opts.adaptive) {
+    const flow = buildFlow(base.value);
+    const engine = buildEngine(base.value);
+    runner = async (_c, file) => {
+      const r = await replayCase(rawCase(file), flow, engine);
+      return { ranked: r.diagnosis.causes.map((x) => x.id), questionsAsked: r.questionsAsked };
+    };
+  }
+  const report = await checkCases(files, base.value, runner);
+  if (!report.ok) return fail(report.issues);
+  out(opts.json ? JSON.stringify(report.value, null, 2) : formatCaseCheck(report.value));
+  return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
+}
+
+/** Where the rules and cases are; reading commands fall back to the built-in folders. */
+function knowledge(opts: { rules?: string | undefined; cases?: string | undefined }, reading: boolean) {
+  return resolveKnowledge(opts, process.env, process.cwd(), reading ? { rules: BUILT_IN_RULES, cases: BUILT_IN_CASES } : undefined);
+}
+
+function print(o: Outcome): number {
+  if (o.out) out(o.out);
+  if (o.err) process.stderr.write(o.err.endsWith('\n') ? o.err : o.err + '\n');
+  return o.code;
 }
 
 /** The interactive dialogue; Ink is loaded only here. */

@@ -14,8 +14,7 @@
 import type { Diagnosis } from '../engine/diagnose.js';
 import type { Condition, Leaf } from '../knowledge/rulebase-schema.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
-import { computeExpectations } from '../model/expected.js';
-import type { MachineData } from '../model/machine.js';
+import { quantitiesFedBy } from '../model/feeds.js';
 import type { DialogueQuestion } from './questions.js';
 
 export interface CompiledQuestion {
@@ -76,23 +75,6 @@ function leavesOf(c: Condition, base: RuleBase, derivers: Map<string, Condition[
   return [{ leaf: c, sign }];
 }
 
-/** Quantities a reading feeds: found by giving the model the reading and seeing what gains a measured value. */
-function quantitiesFedBy(reading: string): string[] {
-  const machine: MachineData = {
-    connection: 'compound-cumulative',
-    nameplate: { armatureVoltage: 220, armatureCurrent: 40, speed: 1500, power: 7500, fieldVoltage: 220, fieldCurrent: 1, insulationClass: 'F', noLoadSpeed: 1700 },
-    resistances: { armature: 0.4, shuntField: 200, seriesField: 0.05, at: 20 },
-  };
-  const base = { armatureVoltage: 220, armatureCurrent: 30, speed: 1500, ambientTemperature: 25, insulationResistance1min: 100, insulationTestTemperature: 25, brushLengthNew: 30 };
-  const before = computeExpectations({ machine, readings: base });
-  const after = computeExpectations({ machine: { ...machine, tachoVoltsPer1000Rpm: 60 }, readings: { ...base, [reading]: reading === 'speed' ? 1400 : reading === 'supplyVoltage' ? 230 : 10 } });
-  return Object.keys(after.quantities).filter((k) => {
-    const a = after.quantities[k as keyof typeof after.quantities]!;
-    const b = before.quantities[k as keyof typeof before.quantities];
-    return !b || a.measured !== b.measured || a.value !== b.value;
-  });
-}
-
 export function compilePolicy(base: RuleBase, questions: DialogueQuestion[]): Policy {
   const derivers = new Map<string, Condition[]>();
   for (const { rule } of base.rules) if (rule.kind === 'derive') derivers.set(rule.derive, [...(derivers.get(rule.derive) ?? []), rule.conditions]);
@@ -124,7 +106,7 @@ export function compilePolicy(base: RuleBase, questions: DialogueQuestion[]): Po
       const fed = new Set(quantitiesFedBy(t.name));
       const likelihood = new Map<string, number[]>();
       for (const cause of causeIds) {
-        const watched = evidence.some((e) => e.cause === cause && e.leaves.some(({ leaf }) => (leaf.fact === 'ratio' || leaf.fact === 'value' || leaf.fact === 'measured') && fed.has(leaf.path?.slice(2) ?? '')));
+        const watched = evidence.some((e) => e.cause === cause && e.leaves.some(({ leaf }) => (leaf.fact === 'ratio' || leaf.fact === 'value' || leaf.fact === 'measured') && (fed as Set<string>).has(leaf.path?.slice(2) ?? '')));
         const p = watched ? OUT_OF_BAND_IF_WATCHED : OUT_OF_BAND_OTHERWISE;
         likelihood.set(cause, [p, 1 - p]);
       }

@@ -132,6 +132,14 @@ export const ruleFile = z.strictObject({
   rules: z.array(ruleSchema).min(1),
 });
 
+/** A draft in drafts/: a rule file that may also bring a new cause and its checks. */
+export const draftFile = z.strictObject({
+  ...ruleFile.shape,
+  causes: z.array(causeSchema).optional(),
+  checks: z.array(checkSchema).optional(),
+});
+
+export type DraftFile = z.infer<typeof draftFile>;
 export type Cause = z.infer<typeof causeSchema>;
 export type Check = z.infer<typeof checkSchema>;
 export type Question = z.infer<typeof questionSchema>;

@@ -12,8 +12,18 @@ export interface Written {
   suffix: number;
 }
 
-export function writeNewFile(dir: string, stem: string, ext: string, content: string | ((suffix: number) => string), maxTries = 1000): Written {
+export interface WriteOptions {
+  /** Suffixes known to be taken for another reason (an id already used under another name). */
+  skip?: (suffix: number) => boolean;
+  maxTries?: number;
+  /** The step that publishes the file; replaceable so tests can fail it. */
+  link?: (from: string, to: string) => void;
+}
+
+export function writeNewFile(dir: string, stem: string, ext: string, content: string | ((suffix: number) => string), opts: WriteOptions = {}): Written {
+  const { skip = () => false, maxTries = 1000, link = linkSync } = opts;
   for (let n = 1; n <= maxTries; n++) {
+    if (skip(n)) continue;
     const name = n === 1 ? `${stem}${ext}` : `${stem}-${n}${ext}`;
     const text = typeof content === 'function' ? content(n) : content;
     const tmp = join(dir, `.${name}.${process.pid}.${Date.now()}.tmp`);
@@ -25,7 +35,7 @@ export function writeNewFile(dir: string, stem: string, ext: string, content: st
       closeSync(fd);
     }
     try {
-      linkSync(tmp, join(dir, name));
+      link(tmp, join(dir, name));
       return { file: join(dir, name), suffix: n };
     } catch (e) {
       if ((e as NodeJS.ErrnoException).code !== 'EEXIST') throw e;
