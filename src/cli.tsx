@@ -22,6 +22,8 @@ import { ok, type Result } from './knowledge/result.js';
 import { jobFromAnswers, type Answer } from './dialogue/job.js';
 import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Session } from './shell/session.js';
 import { writeNewFile } from './shell/write-new-file.js';
+import { fileCase } from './shell/file-case.js';
+import { outcomeOf } from './dialogue/outcome.js';
 
 /** --machine takes a machine object, or a whole case file whose machine is used; the raw machine is kept as typed. */
 function readMachineFile(file: string): Result<unknown> {
@@ -194,7 +196,7 @@ function print(o: Outcome): number {
 }
 
 /** The interactive dialogue; Ink is loaded only here. */
-async function dialogue(resume: boolean, opts: { rules?: string | undefined; machine?: string | undefined; session?: string | undefined }): Promise<number> {
+async function dialogue(resume: boolean, opts: { rules?: string | undefined; cases?: string | undefined; machine?: string | undefined; session?: string | undefined }): Promise<number> {
   if (!process.stdin.isTTY || !process.stdout.isTTY) {
     process.stderr.write('dctriage: the dialogue needs a terminal. For a job in a file, run: dctriage diagnose FILE\n');
     return 2;
@@ -232,6 +234,7 @@ async function dialogue(resume: boolean, opts: { rules?: string | undefined; mac
     color: !process.env.NO_COLOR,
     onAnswers: (answers) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers }),
     onSave: (answers) => saveJob(jobFromAnswers(answers, machineFile)),
+    onRecord: (answers, outcome) => recordJob({ ...jobFromAnswers(answers, machineFile), outcome: outcomeOf(outcome, today()) }, base.value, opts),
   });
 }
 
@@ -244,6 +247,20 @@ function saveJob(draft: unknown): string {
   } catch (e) {
     return `Could not save the job in ${process.cwd()}: ${(e as Error).message}. The session is still kept; try from a folder you can write to.`;
   }
+}
+
+const today = () => new Date().toISOString().slice(0, 10);
+
+/** Files the job with its outcome into the cases folder; the words say where, or why not (the session is kept). */
+function recordJob(draft: Record<string, unknown>, base: RuleBase, opts: { rules?: string | undefined; cases?: string | undefined }): string {
+  const k = knowledge(opts, false);
+  if (!k.ok) return `Not recorded: ${formatIssues(k.issues)}. Type save to keep the job in this folder instead.`;
+  const parsed = caseSchema.safeParse(draft);
+  if (!parsed.success) return `Not recorded: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`;
+  const cause = parsed.data.outcome?.cause;
+  if (cause && !base.causes.some((c) => c.id === cause)) return `Not recorded: "${cause}" is not a cause of the catalogue in use`;
+  const filed = fileCase(draft, parsed.data, k.value.cases, today());
+  return filed.ok ? `Recorded the job as ${filed.value.file}` : `Not recorded: ${formatIssues(filed.issues)}. The session is kept; type save to keep the job here instead.`;
 }
 
 /** The case file as written; called only after loadCase has validated the same file. */

@@ -51,6 +51,8 @@ export function jobFromAnswers(answers: readonly Answer[], machineFile?: unknown
         draft.readings = { ...draft.readings };
         set(draft.readings as Record<string, unknown>, t.name, a.value);
         break;
+      case 'outcome':
+        break; // recorded separately, see outcome.ts
     }
   }
   return draft;

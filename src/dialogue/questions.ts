@@ -16,7 +16,8 @@ export type Target =
   | { section: 'job'; name: 'workOrder' | 'asset' }
   | { section: 'symptoms' }
   | { section: 'observations'; name: ObservationName }
-  | { section: 'readings'; name: string };
+  | { section: 'readings'; name: string }
+  | { section: 'outcome'; name: string };
 
 export interface Option {
   value: string;

@@ -8,6 +8,7 @@ import type { Diagnosis } from '../engine/diagnose.js';
 import { parseAnswer, cleanInput } from './answers.js';
 import { nextStep, type Flow, type Next } from './flow.js';
 import { jobFromAnswers, parseDraft, type Answer } from './job.js';
+import { nextOutcomeQuestion, outcomeAnswerProblem } from './outcome.js';
 
 export type Panel = 'why' | 'causes' | 'safety' | 'help';
 
@@ -19,7 +20,7 @@ export type LogEntry =
 
 export interface DialogueState {
   /** `finishing`: the questions are over and the result waits for the diagnosis of the last answers. */
-  phase: 'notice' | 'asking' | 'finishing' | 'result';
+  phase: 'notice' | 'asking' | 'finishing' | 'result' | 'recording';
   answers: Answer[];
   log: LogEntry[];
   /** Bumped whenever the answers change; a diagnosis is current only for its version. */
@@ -34,6 +35,10 @@ export interface DialogueState {
   saveRequested?: boolean | undefined;
   /** What the last save said: where the file went, or why it could not be written. */
   saved?: string | undefined;
+  /** The outcome being recorded, once the fitter asked to record the job. */
+  outcome: Answer[];
+  /** The outcome is complete: the shell files the case and answers with `saved`. */
+  recordRequested?: boolean | undefined;
 }
 
 export type DialogueEvent =
@@ -55,11 +60,12 @@ export const COMMANDS = {
   safety: 'the safety notice',
   done: 'finish now and see the result',
   save: 'save the job as a case file (once the result is shown)',
+  record: 'record the confirmed cause and the repair, and file the job as a case',
   help: 'these commands',
 } as const;
 
 export function initialState(answers: Answer[] = []): DialogueState {
-  return { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0 };
+  return { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [] };
 }
 
 /** Ends the questions: the result shows at once if the diagnosis is current, else when it comes. */
@@ -102,7 +108,7 @@ export function reduce(state: DialogueState, event: DialogueEvent, ctx: Dialogue
     case 'input':
       return onInput(state, event.text, event.at, ctx);
     case 'saved':
-      return { ...state, saveRequested: false, saved: event.message };
+      return { ...state, saveRequested: false, recordRequested: false, saved: event.message };
   }
 }
 
@@ -117,6 +123,8 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
     return withAnswers({ ...base, phase: 'asking', endedBecause: undefined, log: [...state.log, { kind: 'withdrawn', answer: last }] }, state.answers.slice(0, -1));
   }
   if (word === 'why' || word === 'causes' || word === 'safety' || word === 'help') return { ...base, panel: word };
+  if (state.phase === 'recording') return onOutcomeInput(base, text, word, at, ctx);
+  if (word === 'record') return state.phase === 'result' ? { ...base, phase: 'recording', outcome: [] } : { ...base, error: 'record comes with the result: type done to finish first' };
   if (word === 'save') return state.phase === 'result' ? { ...base, saveRequested: true } : { ...base, error: 'save comes with the result: type done to finish first' };
   if (word === 'done') return state.phase === 'asking' ? finish(base, 'you asked for the result') : base;
   if (state.phase === 'finishing') return { ...base, error: 'the result is on its way: a moment' };
@@ -127,6 +135,25 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   if (!parsed.ok) return { ...base, error: parsed.reason };
   const answer: Answer = { questionId: step.question.id, target: step.question.target, value: parsed.value, shown: parsed.shown, at };
   return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }] }, [...state.answers, answer]);
+}
+
+/** The recording questions: back steps back within them; the last answer files the case. */
+function onOutcomeInput(state: DialogueState, text: string, word: string, at: string, ctx: DialogueContext): DialogueState {
+  if (word === 'back') return state.outcome.length ? { ...state, outcome: state.outcome.slice(0, -1) } : { ...state, phase: 'result' };
+  const question = outcomeStep(state, ctx);
+  if (!question) return state;
+  const problem = outcomeAnswerProblem(question, text);
+  if (problem) return { ...state, error: problem };
+  const parsed = parseAnswer(question, text);
+  if (!parsed.ok) return { ...state, error: parsed.reason };
+  const outcome = [...state.outcome, { questionId: question.id, target: question.target, value: parsed.value, shown: parsed.shown, at }];
+  const next = { ...state, outcome };
+  return outcomeStep(next, ctx) ? next : { ...next, phase: 'result', recordRequested: true };
+}
+
+export function outcomeStep(state: DialogueState, ctx: DialogueContext) {
+  const d = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
+  return nextOutcomeQuestion(ctx.flow, d, state.answers, state.outcome);
 }
 
 function withAnswers(state: DialogueState, answers: Answer[]): DialogueState {

@@ -11,12 +11,24 @@ Usage:
   dctriage                              the guided dialogue (needs a terminal)
   dctriage expect FILE [--json]         what a healthy machine would read, against the readings
   dctriage diagnose FILE [--json]       ranked causes, ordered checks and isolation steps
+  dctriage resume                       pick up an interrupted dialogue
   dctriage cases check [DIR] [--json]   every recorded case: where its confirmed cause ranks
+  dctriage cases add FILE               file a solved job as a recorded case
+  dctriage rules draft --from-case FILE draft a rule from a recorded case
+  dctriage rules check [--json]         review the rule folder, then run every recorded case
+  dctriage rules adopt DRAFT [--force]  move a reviewed draft into the rule folder
   dctriage --help | --version
 
 Options:
-  --rules DIR   use this rule folder instead of the built-in one
-  --json        machine-readable output on stdout
+  --rules DIR     use this rule folder instead of the built-in one
+  --cases DIR     the recorded cases to read or write
+  --json          machine-readable output on stdout
+  --adaptive      diagnose / cases check: ask the file only what the dialogue would ask
+  --machine FILE  dialogue: take the machine from this file (a machine or a case file)
+  --session FILE  dialogue: keep the session here
+
+Without --rules/--cases, writing commands use DCTRIAGE_KNOWLEDGE, the "knowledge"
+folder of ~/.config/dctriage/settings.json, or rules/ and cases/ of a checkout.
 
 FILE is a dc-case/1 JSON file (schema: schemas/dc-case-1.schema.json).
 Exit codes: 0 done, 1 findings (cases check: a case outside its top 3), 2 bad input.

@@ -8,7 +8,8 @@ import { Box, Static, Text, useApp, useStdout } from 'ink';
 import type { Engine } from 'json-rules-engine';
 import { diagnose } from '../engine/diagnose.js';
 import { parseDraft } from '../dialogue/job.js';
-import { COMMANDS, currentStep, draftOf, initialState, reduce, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
+import { COMMANDS, currentStep, draftOf, initialState, outcomeStep, reduce, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
+import type { DialogueQuestion } from '../dialogue/questions.js';
 import type { Answer } from '../dialogue/job.js';
 import type { Diagnosis } from '../engine/diagnose.js';
 import { formatDiagnosis } from '../shell/format-diagnosis.js';
@@ -24,6 +25,8 @@ export interface DialogueProps {
   onAnswers?: (answers: Answer[]) => void;
   /** Saves the job; returns the words to show (where it went, or why not). */
   onSave?: (answers: Answer[]) => string;
+  /** Files the job with its recorded outcome as a case; returns the words to show. */
+  onRecord?: (answers: Answer[], outcome: Answer[]) => string;
   onInterrupt?: () => void;
   color?: boolean;
 }
@@ -36,7 +39,7 @@ interface Line {
 
 const now = () => new Date().toISOString();
 
-export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers, onSave, onInterrupt, color = true }: DialogueProps) {
+export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers, onSave, onRecord, onInterrupt, color = true }: DialogueProps) {
   const { exit } = useApp();
   const { stdout } = useStdout();
   const width = Math.max(40, stdout?.columns ?? 80);
@@ -66,6 +69,10 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
   useEffect(() => {
     if (state.saveRequested) dispatch({ type: 'saved', message: onSave ? onSave(state.answers) : 'saving is not available here' });
   }, [state.saveRequested]);
+  useEffect(() => {
+    if (state.recordRequested) dispatch({ type: 'saved', message: onRecord ? onRecord(state.answers, state.outcome) : 'recording is not available here' });
+  }, [state.recordRequested]);
+  const recording = state.phase === 'recording' ? outcomeStep(state, ctx) : undefined;
 
   const tone = (t: Line['tone']): { color?: string } => {
     const c = !color ? undefined : t === 'warning' ? 'red' : t === 'muted' ? 'gray' : t === 'answer' ? 'cyan' : undefined;
@@ -93,26 +100,32 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
         <Text wrap="truncate-end">Leading: {leaders.map((c, k) => `${k + 1} ${c.title} ${c.score.toFixed(2)}`).join(' · ')}</Text>
       )}
       {state.panel && <Panel which={state.panel} state={state} ctx={ctx} diagnosis={diagnosis} safetyNotice={safetyNotice} width={width} />}
-      {state.phase === 'asking' && step.kind === 'ask' && (
-        <Box flexDirection="column">
-          <Text bold>? {step.question.prompt}{step.question.state === 'live-test' ? '  [LIVE TEST: qualified person]' : step.question.state === 'isolated' ? '  [needs isolation]' : ''}{step.question.answer.kind === 'quantity' ? `  (default unit ${unitOf(step.question.answer.dimension)})` : ''}</Text>
-          {(step.question.answer.kind === 'choice' || step.question.answer.kind === 'many') && (
-            <Box flexWrap="wrap" columnGap={2}>
-              {step.question.answer.options.map((o, k) => <Text key={o.value}>{k + 1} {o.label}</Text>)}
-            </Box>
-          )}
-          {step.question.state === 'isolated' && !state.answers.some((a) => ctx.flow.all.get(a.questionId)?.state === 'isolated') && (
-            <Text {...(color ? { color: 'yellow' } : {})}>Isolate first: {ctx.flow.base.safety.isolation.steps.map((s, k) => `${k + 1}. ${s.id}`).join('  ')} — type safety for the full steps.</Text>
-          )}
-        </Box>
-      )}
+      {state.phase === 'asking' && step.kind === 'ask' && <QuestionView question={step.question} firstIsolated={step.question.state === 'isolated' && !state.answers.some((a) => ctx.flow.all.get(a.questionId)?.state === 'isolated')} ctx={ctx} color={color} />}
+      {recording && <QuestionView question={recording} firstIsolated={false} ctx={ctx} color={color} />}
       {state.phase === 'asking' && step.kind === 'needs-diagnosis' && <Text>Working out the next question…</Text>}
       {state.phase === 'finishing' && <Text>Working out the result…</Text>}
-      {state.phase === 'result' && <Text>Type save to keep the job as a case file, back to change the last answer, or press Ctrl-C to leave (the session is kept).</Text>}
+      {state.phase === 'result' && <Text>Type record to file the job with the cause you confirmed, save to keep it as it stands, back to change the last answer, or press Ctrl-C to leave (the session is kept).</Text>}
       {state.saved && <Text>{state.saved}</Text>}
       {state.error && <Text {...(color ? { color: 'red' } : {})}>✗ {state.error}</Text>}
       {state.phase !== 'notice' && <Text>&gt; {typed}</Text>}
       <Text {...(color ? { color: 'gray' } : {})} wrap="truncate-end">Enter alone = unknown · back · why · causes · safety · done · help · Ctrl-C quits (saved)</Text>
+    </Box>
+  );
+}
+
+function QuestionView({ question, firstIsolated, ctx, color }: { question: DialogueQuestion; firstIsolated: boolean; ctx: DialogueContext; color: boolean }) {
+  const a = question.answer;
+  return (
+    <Box flexDirection="column">
+      <Text bold>? {question.prompt}{question.state === 'live-test' ? '  [LIVE TEST: qualified person]' : question.state === 'isolated' ? '  [needs isolation]' : ''}{a.kind === 'quantity' ? `  (default unit ${unitOf(a.dimension)})` : ''}</Text>
+      {(a.kind === 'choice' || a.kind === 'many') && (
+        <Box flexWrap="wrap" columnGap={2}>
+          {a.options.map((o, k) => <Text key={o.value}>{k + 1} {o.label}</Text>)}
+        </Box>
+      )}
+      {firstIsolated && (
+        <Text {...(color ? { color: 'yellow' } : {})}>Isolate first: {ctx.flow.base.safety.isolation.steps.map((s, k) => `${k + 1}. ${s.says}`).join(' ')} Type safety for the DC-specific steps.</Text>
+      )}
     </Box>
   );
 }

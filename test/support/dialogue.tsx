@@ -12,6 +12,7 @@ export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: 
   const base = builtInRules();
   const flow = buildFlow(base);
   const saved: Answer[][] = [];
+  const recorded: { answers: Answer[]; outcome: Answer[] }[] = [];
   const app = render(
     <Dialogue
       ctx={{ flow, machineFile: opts.machineFile }}
@@ -19,6 +20,10 @@ export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: 
       safetyNotice={base.safety.notice}
       initialAnswers={opts.initialAnswers ?? []}
       onAnswers={(a) => saved.push(a)}
+      onRecord={(answers, outcome) => {
+        recorded.push({ answers, outcome });
+        return 'Recorded the job as test-case.json';
+      }}
       color={false}
     />,
   );
@@ -32,5 +37,5 @@ export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: 
   };
   /** Everything printed so far: the settled transcript and the live area. */
   const screen = () => app.frames.join('\n');
-  return { ...app, type, screen, saved, flow };
+  return { ...app, type, screen, saved, recorded, flow };
 }

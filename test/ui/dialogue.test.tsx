@@ -107,6 +107,23 @@ describe('the dialogue', () => {
     d.unmount();
   });
 
+  it('records the confirmed cause, the fix and the readings after the repair', async () => {
+    const d = renderDialogue();
+    await openJob(d);
+    await d.type('done');
+    await d.type('record');
+    expect(d.lastFrame()).toContain('? Which cause did you confirm?');
+    await d.type('another');
+    await d.type('field-weak');
+    await d.type('Replaced the field rheostat');
+    await d.type('Rheostat wiper burnt');
+    await d.type('A.P.');
+    expect(d.lastFrame()).toContain('Recorded the job as test-case.json');
+    const { outcomeOf } = await import('../../src/dialogue/outcome.js');
+    expect(outcomeOf(d.recorded[0]!.outcome, '2026-12-01')).toEqual({ date: '2026-12-01', cause: 'field-weak', fix: 'Replaced the field rheostat', notes: 'Rheostat wiper burnt', recordedBy: 'A.P.' });
+    d.unmount();
+  });
+
   it('resumes an interrupted session with every answer', async () => {
     const first = renderDialogue();
     await openJob(first);
