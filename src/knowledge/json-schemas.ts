@@ -1,9 +1,19 @@
 /** The published JSON Schemas of the data files, generated from the zod schemas (input mode). */
 import * as z from 'zod';
 import { caseSchema } from './case-schema.js';
+import { causesFile, checksFile, draftFile, questionsFile, ruleFile, safetyFile, sharedConditionsFile } from './rulebase-schema.js';
+
+const schemaOf = (s: z.ZodType) => z.toJSONSchema(s, { io: 'input', target: 'draft-2020-12' });
 
 export function publishedSchemas(): Record<string, unknown> {
   return {
-    'dc-case-1.schema.json': z.toJSONSchema(caseSchema, { io: 'input', target: 'draft-2020-12' }),
+    'dc-case-1.schema.json': schemaOf(caseSchema),
+    'causes.schema.json': schemaOf(causesFile),
+    'checks.schema.json': schemaOf(checksFile),
+    'questions.schema.json': schemaOf(questionsFile),
+    'safety.schema.json': schemaOf(safetyFile),
+    'conditions.schema.json': schemaOf(sharedConditionsFile),
+    'rule-file.schema.json': schemaOf(ruleFile),
+    'draft.schema.json': schemaOf(draftFile),
   };
 }
