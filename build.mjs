@@ -6,12 +6,17 @@ const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 
 
 await build({
   entryPoints: ['src/cli.tsx'],
-  outfile: 'dist/cli.mjs',
+  outdir: 'dist',
+  entryNames: '[name]',
+  chunkNames: 'chunks/[name]-[hash]',
+  outExtension: { '.js': '.mjs' },
   bundle: true,
   platform: 'node',
   format: 'esm',
   target: 'node20',
-  splitting: false,
+  // The dialogue's screens (Ink, React) are a chunk of their own, loaded only for the dialogue;
+  // a single file would also keep all of mathjs, which a lazily loaded part defeats tree-shaking for.
+  splitting: true,
   logLevel: 'warning',
   define: { 'process.env.NODE_ENV': '"production"', DCTRIAGE_VERSION: JSON.stringify(pkg.version) },
   // ink imports react-devtools-core statically; it is never used at run time.

@@ -3,7 +3,7 @@
  * are given up front, every other fact is taken from the file only when its question is asked
  * (absent: unknown). Measures how quickly the dialogue gets there.
  */
-import type { Engine } from 'json-rules-engine';
+import type { RuleEngines } from '../engine/run-rules.js';
 import type { CaseFile, CaseInput } from '../knowledge/case-schema.js';
 import { diagnose, type Diagnosis } from '../engine/diagnose.js';
 import type { AnswerValue } from './answers.js';
@@ -18,7 +18,7 @@ export interface Replay {
 }
 
 /** `raw` is the case file as written (quantities as typed); `parsed` the validated one. */
-export async function replayCase(raw: CaseInput, flow: Flow, engine: Engine): Promise<Replay> {
+export async function replayCase(raw: CaseInput, flow: Flow, engine: RuleEngines): Promise<Replay> {
   const answers: Answer[] = [];
   const given = { machine: raw.machine, job: raw.job, symptoms: raw.symptoms ?? [] };
   const asked: string[] = [];

@@ -2,7 +2,7 @@
  * One job through the model and the rule base: ranked causes with their evidence, warnings
  * before anything else, ordered checks and the isolation steps before the first isolated one.
  */
-import type { Engine } from 'json-rules-engine';
+import type { RuleEngines } from './run-rules.js';
 import type { CaseFile } from '../knowledge/case-schema.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import type { AppliesTo, Check } from '../knowledge/rulebase-schema.js';
@@ -56,7 +56,7 @@ const CAUSES_WITH_CHECKS = 4;
 
 export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'readings'>;
 
-export async function diagnose(job: JobInput, base: RuleBase, engine: Engine): Promise<Diagnosis> {
+export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngines): Promise<Diagnosis> {
   const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
   const { facts, fired, askable, askFirst } = await runToFixpoint(engine, base, jobFacts(job, expectation));
   // A derived fact is explained by what the rule that derived it saw, recursively.

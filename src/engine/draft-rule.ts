@@ -138,7 +138,7 @@ export async function casesDraftFiresOn(draft: DraftFile, cases: CaseFile[], bas
   const fires: boolean[] = [];
   for (const c of cases) {
     const facts = jobFacts(c, computeExpectations({ machine: c.machine, readings: c.readings }));
-    const { results } = await engine.run(facts);
+    const { results } = await engine.judge.run(facts);
     fires.push(results.length > 0);
   }
   return fires;

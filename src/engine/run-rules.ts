@@ -32,8 +32,17 @@ const ASK_FIRST_PREFIX = 'ask-first:';
 
 const known = (a: unknown) => a !== undefined && a !== null;
 
-/** Builds the engine for a rule base once; each job gets fresh runs with its own facts. */
-export function buildEngine(base: RuleBase): Engine {
+/**
+ * The rule base as two engines: the derive rules, run to a fixpoint, and everything else
+ * (evidence, rule-outs, warnings, question conditions), run once on the settled facts. Only
+ * derive rules add facts, so the result is the same as rerunning everything, for fewer runs.
+ */
+export interface RuleEngines {
+  derive: Engine;
+  judge: Engine;
+}
+
+function newEngine(base: RuleBase): Engine {
   const engine = new Engine([], { allowUndefinedFacts: true });
   // Observations are mostly unknown in a real job: these operators are false on an unknown fact.
   engine.addOperator<unknown, unknown>('is', (a, b) => known(a) && a === b);
@@ -41,39 +50,49 @@ export function buildEngine(base: RuleBase): Engine {
   engine.addOperator<unknown, unknown[]>('isOneOf', (a, b) => known(a) && b.includes(a));
   engine.addOperator<unknown, unknown[]>('isNoneOf', (a, b) => known(a) && !b.includes(a));
   for (const [name, cond] of Object.entries(base.conditions)) engine.setCondition(name, topLevel(cond));
-  base.rules.forEach(({ rule }) => {
-    engine.addRule({ name: rule.name, priority: 1, conditions: topLevel(rule.conditions), event: { type: rule.kind } });
-  });
+  return engine;
+}
+
+/** Builds the engines for a rule base once; each job gets fresh runs with its own facts. */
+export function buildEngine(base: RuleBase): RuleEngines {
+  const derive = newEngine(base);
+  const judge = newEngine(base);
+  for (const { rule } of base.rules) {
+    (rule.kind === 'derive' ? derive : judge).addRule({ name: rule.name, priority: 1, conditions: topLevel(rule.conditions), event: { type: rule.kind } });
+  }
   // A question's askWhen is a rule of its own, so the engine decides it along with the rest.
   for (const q of base.questions) {
-    if (q.askWhen) engine.addRule({ name: `${ASK_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askWhen), event: { type: 'askable' } });
-    if (q.askFirstWhen) engine.addRule({ name: `${ASK_FIRST_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askFirstWhen), event: { type: 'ask-first' } });
+    if (q.askWhen) judge.addRule({ name: `${ASK_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askWhen), event: { type: 'askable' } });
+    if (q.askFirstWhen) judge.addRule({ name: `${ASK_FIRST_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askFirstWhen), event: { type: 'ask-first' } });
   }
-  return engine;
+  return { derive, judge };
 }
 
 function topLevel(c: Condition): TopLevelCondition {
   return ('all' in c || 'any' in c || 'not' in c || 'condition' in c ? c : { all: [c] }) as TopLevelCondition;
 }
 
-export async function runToFixpoint(engine: Engine, base: RuleBase, start: Facts): Promise<RunOutcome> {
+export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start: Facts): Promise<RunOutcome> {
   const limit = base.rules.filter((r) => r.rule.kind === 'derive').length + 2;
   const byName = new Map(base.rules.map(({ rule }) => [rule.name, rule]));
-  let facts = { ...start };
-  for (let iteration = 1; iteration <= limit; iteration++) {
-    const { results } = await engine.run(facts);
-    const names = results.map((r: RuleResult) => String(r.name));
-    const withPrefix = (prefix: string) => new Set(names.filter((n) => n.startsWith(prefix)).map((n) => n.slice(prefix.length)));
-    const askable = withPrefix(ASK_PREFIX);
-    const askFirst = withPrefix(ASK_FIRST_PREFIX);
+  const firedOf = (results: RuleResult[]): Fired[] =>
     // Rule names are unique in a loaded rule base (the loader checks it).
-    const fired = results.filter((r) => byName.has(String(r.name))).map((r: RuleResult) => ({ rule: byName.get(String(r.name))!, tree: r.toJSON(false).conditions }));
+    results.filter((r) => byName.has(String(r.name))).map((r) => ({ rule: byName.get(String(r.name))!, tree: r.toJSON(false).conditions }));
+  let facts = { ...start };
+  let derived: Fired[] = [];
+  let iterations = 0;
+  for (;;) {
+    if (++iterations > limit) throw new RuleCycleError(`rules did not settle after ${limit} runs: derived facts keep changing`);
+    derived = firedOf((await engines.derive.run(facts)).results);
     const added: Facts = {};
-    for (const { rule } of fired) if (rule.kind === 'derive' && facts[rule.derive] !== true) added[rule.derive] = true;
-    if (Object.keys(added).length === 0) return { facts, fired: sortByName(fired), askable, askFirst, iterations: iteration };
+    for (const { rule } of derived) if (rule.kind === 'derive' && facts[rule.derive] !== true) added[rule.derive] = true;
+    if (Object.keys(added).length === 0) break;
     facts = { ...facts, ...added };
   }
-  throw new RuleCycleError(`rules did not settle after ${limit} runs: derived facts keep changing`);
+  const { results } = await engines.judge.run(facts);
+  const names = results.map((r) => String(r.name));
+  const withPrefix = (prefix: string) => new Set(names.filter((n) => n.startsWith(prefix)).map((n) => n.slice(prefix.length)));
+  return { facts, fired: sortByName([...derived, ...firedOf(results)]), askable: withPrefix(ASK_PREFIX), askFirst: withPrefix(ASK_FIRST_PREFIX), iterations };
 }
 
 function sortByName(fired: Fired[]): Fired[] {

@@ -5,7 +5,7 @@
  */
 import { useEffect, useMemo, useReducer, useRef } from 'react';
 import { Box, Static, Text, useApp, useStdout } from 'ink';
-import type { Engine } from 'json-rules-engine';
+import type { RuleEngines } from '../engine/run-rules.js';
 import { diagnose } from '../engine/diagnose.js';
 import { parseDraft } from '../dialogue/job.js';
 import { COMMANDS, currentStep, draftOf, initialState, outcomeStep, reduce, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
@@ -18,7 +18,7 @@ import { useLineInput } from './use-line-input.js';
 
 export interface DialogueProps {
   ctx: DialogueContext;
-  engine: Engine;
+  engine: RuleEngines;
   safetyNotice: string;
   initialAnswers?: Answer[];
   /** Called after every change of answers: the shell saves the session. */
