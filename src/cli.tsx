@@ -24,6 +24,12 @@ import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Ses
 import { writeNewFile } from './shell/write-new-file.js';
 import { fileCase } from './shell/file-case.js';
 import { outcomeOf } from './dialogue/outcome.js';
+import { writeReport } from './shell/write-report.js';
+import { readSettings } from './shell/settings.js';
+import { ROLES, type Role } from './dialogue/work.js';
+import { parseDraft } from './dialogue/job.js';
+import type { DialogueState } from './dialogue/reducer.js';
+import type { Flow } from './dialogue/flow.js';
 
 /** --machine takes a machine object, or a whole case file whose machine is used; the raw machine is kept as typed. */
 function readMachineFile(file: string): Result<unknown> {
@@ -78,6 +84,8 @@ async function main(argv: string[]): Promise<number> {
         cases: { type: 'string' },
         'from-case': { type: 'string' },
         force: { type: 'boolean' },
+        report: { type: 'string' },
+        role: { type: 'string' },
       },
     });
   } catch (e) {
@@ -91,7 +99,12 @@ async function main(argv: string[]): Promise<number> {
     case 'expect': {
       const file = rest[0];
       if (!file) throw new UsageError('expect needs a case file: dctriage expect FILE');
-      const c = loadCase(file);
+      // A recorded cause must be one of the catalogue in use, as for every other command.
+      const k = knowledge(opts, true);
+      if (!k.ok) return fail(k.issues);
+      const base = loadRuleBase(k.value.rules);
+      if (!base.ok) return fail(base.issues);
+      const c = loadCase(file, causeIdsOf(base.value));
       if (!c.ok) return fail(c.issues);
       const e = computeExpectations(modelInput(c.value));
       out(opts.json ? JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2) : formatExpectation(e));
@@ -100,7 +113,9 @@ async function main(argv: string[]): Promise<number> {
     case 'diagnose': {
       const file = rest[0];
       if (!file) throw new UsageError('diagnose needs a case file: dctriage diagnose FILE');
-      const base = loadRuleBase(opts.rules ?? BUILT_IN_RULES);
+      const k = knowledge(opts, true);
+      if (!k.ok) return fail(k.issues);
+      const base = loadRuleBase(k.value.rules);
       if (!base.ok) return fail(base.issues);
       const c = loadCase(file, causeIdsOf(base.value));
       if (!c.ok) return fail(c.issues);
@@ -117,8 +132,16 @@ async function main(argv: string[]): Promise<number> {
           quantities: d.expectation.quantities,
         }, null, 2));
       } else {
-        if (replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
+        if (opts.report === undefined && replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
         out(formatDiagnosis(d));
+      }
+      if (opts.report !== undefined) {
+        try {
+          const where = writeReport(opts.report, { job: c.value, raw: rawCase(file) as Record<string, unknown>, diagnosis: d, safety: base.value.safety, generatedAt: new Date().toISOString() }, process.cwd());
+          process.stderr.write(`Job report written to ${where}\n`);
+        } catch (e) {
+          return fail([{ code: 'unreadable', file: opts.report, path: '', message: `could not write the report: ${(e as Error).message}` }]);
+        }
       }
       return 0;
     }
@@ -196,7 +219,7 @@ function print(o: Outcome): number {
 }
 
 /** The interactive dialogue; Ink is loaded only here. */
-async function dialogue(resume: boolean, opts: { rules?: string | undefined; cases?: string | undefined; machine?: string | undefined; session?: string | undefined }): Promise<number> {
+async function dialogue(resume: boolean, opts: { rules?: string | undefined; cases?: string | undefined; machine?: string | undefined; session?: string | undefined; report?: string | undefined; role?: string | undefined }): Promise<number> {
   if (!process.stdin.isTTY || !process.stdout.isTTY) {
     process.stderr.write('dctriage: the dialogue needs a terminal. For a job in a file, run: dctriage diagnose FILE\n');
     return 2;
@@ -216,6 +239,10 @@ async function dialogue(resume: boolean, opts: { rules?: string | undefined; cas
     if (!m.ok) return fail(m.issues);
     machineFile = m.value;
   }
+  const settings = readSettings(process.env);
+  if (!settings.ok) return fail(settings.issues);
+  const role = opts.role ?? settings.value.role ?? 'fitter';
+  if (!(ROLES as readonly string[]).includes(role)) throw new UsageError(`--role takes ${ROLES.join(', ')}, not "${role}"`);
   const base = loadRuleBase(rulesDir);
   if (!base.ok) return fail(base.issues);
   const flow = buildFlow(base.value);
@@ -227,13 +254,14 @@ async function dialogue(resume: boolean, opts: { rules?: string | undefined; cas
   }
   const { runDialogue } = await import('./ui/run-dialogue.js');
   return runDialogue({
-    ctx: { flow, machineFile },
+    ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true } },
     engine: buildEngine(base.value),
     safetyNotice: base.value.safety.notice,
     initialAnswers,
     color: !process.env.NO_COLOR,
     onAnswers: (answers) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers }),
     onSave: (answers) => saveJob(jobFromAnswers(answers, machineFile)),
+    onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role),
     onRecord: (answers, outcome) => recordJob({ ...jobFromAnswers(answers, machineFile), outcome: outcomeOf(outcome, today()) }, base.value, opts),
   });
 }
@@ -250,6 +278,20 @@ function saveJob(draft: unknown): string {
 }
 
 const today = () => new Date().toISOString().slice(0, 10);
+
+/** The job report from the dialogue as it stands: the last result shown and the work done since. */
+function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role): string {
+  const draft = jobFromAnswers(state.answers, machineFile);
+  const parsed = parseDraft(draft);
+  const result = [...state.log].reverse().find((e) => e.kind === 'result');
+  if (!parsed.ok || !result || result.kind !== 'result') return 'No report yet: the result is not on screen.';
+  try {
+    const where = writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result.diagnosis, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString() }, process.cwd());
+    return `Job report written to ${where}`;
+  } catch (e) {
+    return `Could not write the report: ${(e as Error).message}. The session is kept.`;
+  }
+}
 
 /** Files the job with its outcome into the cases folder; the words say where, or why not (the session is kept). */
 function recordJob(draft: Record<string, unknown>, base: RuleBase, opts: { rules?: string | undefined; cases?: string | undefined }): string {

@@ -13,7 +13,7 @@ import type { Dimension } from '../units/quantity.js';
 export type Target =
   | { section: 'machine'; name: 'connection' | 'drive' | 'feedback' | 'cooling' }
   | { section: 'nameplate'; name: string }
-  | { section: 'job'; name: 'workOrder' | 'asset' }
+  | { section: 'job'; name: 'workOrder' | 'asset' | 'fitter' }
   | { section: 'symptoms' }
   | { section: 'observations'; name: ObservationName }
   | { section: 'readings'; name: string }
@@ -64,6 +64,7 @@ export function machineQuestions(): DialogueQuestion[] {
     { id: 'nameplate-insulationClass', prompt: 'Nameplate: insulation class?', state: 'observe', target: { section: 'nameplate', name: 'insulationClass' }, answer: { kind: 'choice', options: options(INSULATION_CLASSES) }, opening: true },
     { id: 'work-order', prompt: 'Work order number (for the report)?', state: 'observe', target: { section: 'job', name: 'workOrder' }, answer: { kind: 'text' }, opening: true },
     { id: 'asset', prompt: 'Asset or machine tag?', state: 'observe', target: { section: 'job', name: 'asset' }, answer: { kind: 'text' }, opening: true },
+    { id: 'fitter', prompt: 'Your name or initials (the report records who did what)?', state: 'observe', target: { section: 'job', name: 'fitter' }, answer: { kind: 'text' }, opening: true },
     { id: 'symptoms', prompt: 'What is it doing wrong? Pick one or more numbers, e.g. "1 6".', state: 'observe', target: { section: 'symptoms' }, answer: { kind: 'many', options: Object.entries(SYMPTOMS).map(([value, label]) => ({ value, label })) }, opening: true },
   ];
 }

@@ -4,11 +4,12 @@
  * an answer needs no bookkeeping. Diagnosis runs outside (it is asynchronous) and comes back as
  * an event tagged with the answers' version it was made for.
  */
-import type { Diagnosis } from '../engine/diagnose.js';
+import type { CheckResult, Diagnosis } from '../engine/diagnose.js';
 import { parseAnswer, cleanInput } from './answers.js';
 import { nextStep, type Flow, type Next } from './flow.js';
 import { jobFromAnswers, parseDraft, type Answer } from './job.js';
 import { nextOutcomeQuestion, outcomeAnswerProblem } from './outcome.js';
+import { entryFrom, forbidden, needsSupervisor, promptsFor, statusOf, workAnswerProblem, type WorkEntry, type WorkPrompt, type WorkRules } from './work.js';
 
 export type Panel = 'why' | 'causes' | 'safety' | 'help';
 
@@ -16,7 +17,8 @@ export type Panel = 'why' | 'causes' | 'safety' | 'help';
 export type LogEntry =
   | { kind: 'answer'; answer: Answer }
   | { kind: 'withdrawn'; answer: Answer }
-  | { kind: 'result'; diagnosis: Diagnosis; because: string };
+  | { kind: 'result'; diagnosis: Diagnosis; because: string }
+  | { kind: 'note'; text: string };
 
 export interface DialogueState {
   /** `finishing`: the questions are over and the result waits for the diagnosis of the last answers. */
@@ -39,6 +41,14 @@ export interface DialogueState {
   outcome: Answer[];
   /** The outcome is complete: the shell files the case and answers with `saved`. */
   recordRequested?: boolean | undefined;
+  /** Checks started and done, with their authorisations and sign-offs. */
+  work: WorkEntry[];
+  /** A check being started or finished: the prompts answered so far. */
+  pendingWork?: { kind: WorkEntry['kind']; check: CheckResult; got: Partial<Record<WorkPrompt['id'], string>>; firstIsolated: boolean } | undefined;
+  /** The fitter asked for the job report; the shell writes it and answers with `saved`. */
+  reportRequested?: boolean | undefined;
+  /** Said once with the next note. */
+  notice?: string | undefined;
 }
 
 export type DialogueEvent =
@@ -50,6 +60,8 @@ export type DialogueEvent =
 export interface DialogueContext {
   flow: Flow;
   machineFile?: unknown;
+  /** Who is working and what the site allows; a fitter with no limits when absent. */
+  work?: WorkRules;
 }
 
 /** Words typed at any prompt that steer the dialogue rather than answer. */
@@ -61,11 +73,14 @@ export const COMMANDS = {
   done: 'finish now and see the result',
   save: 'save the job as a case file (once the result is shown)',
   record: 'record the confirmed cause and the repair, and file the job as a case',
+  'start N': 'start check N (an apprentice names the supervisor authorising it)',
+  'done N': 'finish check N with what you found (an apprentice names who signs it off)',
+  report: 'write the job report',
   help: 'these commands',
 } as const;
 
 export function initialState(answers: Answer[] = []): DialogueState {
-  return { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [] };
+  return { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [], work: [] };
 }
 
 /** Ends the questions: the result shows at once if the diagnosis is current, else when it comes. */
@@ -108,7 +123,7 @@ export function reduce(state: DialogueState, event: DialogueEvent, ctx: Dialogue
     case 'input':
       return onInput(state, event.text, event.at, ctx);
     case 'saved':
-      return { ...state, saveRequested: false, recordRequested: false, saved: event.message };
+      return { ...state, saveRequested: false, recordRequested: false, reportRequested: false, saved: event.message };
   }
 }
 
@@ -124,6 +139,10 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   }
   if (word === 'why' || word === 'causes' || word === 'safety' || word === 'help') return { ...base, panel: word };
   if (state.phase === 'recording') return onOutcomeInput(base, text, word, at, ctx);
+  if (state.pendingWork) return onWorkPrompt(base, text, word, at, ctx);
+  const work = /^(start|done) +(\d+)$/.exec(word);
+  if (work) return state.phase === 'result' ? beginWork(base, work[1] === 'start' ? 'started' : 'done', Number(work[2]), at, ctx) : { ...base, error: 'checks come with the result: type done to finish the questions first' };
+  if (word === 'report') return state.phase === 'result' ? { ...base, reportRequested: true } : { ...base, error: 'the report comes with the result: type done to finish first' };
   if (word === 'record') return state.phase === 'result' ? { ...base, phase: 'recording', outcome: [] } : { ...base, error: 'record comes with the result: type done to finish first' };
   if (word === 'save') return state.phase === 'result' ? { ...base, saveRequested: true } : { ...base, error: 'save comes with the result: type done to finish first' };
   if (word === 'done') return state.phase === 'asking' ? finish(base, 'you asked for the result') : base;
@@ -135,6 +154,68 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   if (!parsed.ok) return { ...base, error: parsed.reason };
   const answer: Answer = { questionId: step.question.id, target: step.question.target, value: parsed.value, shown: parsed.shown, at };
   return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }] }, [...state.answers, answer]);
+}
+
+const DEFAULT_WORK_RULES: WorkRules = { role: 'fitter', apprenticesMayTestLive: true };
+
+/** The checks of the result on screen. */
+export function resultChecks(state: DialogueState): CheckResult[] {
+  for (let k = state.log.length - 1; k >= 0; k--) {
+    const e = state.log[k]!;
+    if (e.kind === 'result') return e.diagnosis.checks;
+  }
+  return [];
+}
+
+/** Who is doing the work: the name given for the job, else "the fitter". */
+export function workerOf(state: DialogueState, ctx: DialogueContext): string {
+  const job = draftOf(state, ctx).job as { fitter?: string } | undefined;
+  return job?.fitter ?? 'the fitter (no name given)';
+}
+
+function beginWork(state: DialogueState, kind: WorkEntry['kind'], n: number, at: string, ctx: DialogueContext): DialogueState {
+  const rules = ctx.work ?? DEFAULT_WORK_RULES;
+  const check = resultChecks(state)[n - 1];
+  if (!check) return { ...state, error: `there is no check ${n}: the checks are numbered 1 to ${resultChecks(state).length}` };
+  const status = statusOf(state.work, check.id);
+  if (kind === 'started') {
+    if (status !== 'not started') return { ...state, error: `check ${n} is already ${status}` };
+    const no = forbidden(rules, check);
+    if (no) return { ...state, error: no };
+    // The first isolated check is where the machine is made safe: its isolation is recorded.
+    const firstIsolated = check.state === 'isolated' && !state.work.some((w) => w.isolation);
+    const pending = { kind, check, got: {}, firstIsolated };
+    if (promptsFor(kind, needsSupervisor(rules, check), firstIsolated).length === 0) return finishWork(state, 'started', check, {}, at, ctx);
+    return { ...state, pendingWork: pending, notice: firstIsolated ? ' The machine was isolated as the steps before this check say.' : undefined };
+  }
+  if (status === 'not started') return { ...state, error: `check ${n} has not been started: type start ${n} first` };
+  if (status === 'done') return { ...state, error: `check ${n} is already done` };
+  return { ...state, pendingWork: { kind, check, got: {}, firstIsolated: false } };
+}
+
+export function workPrompt(state: DialogueState, ctx: DialogueContext): WorkPrompt | undefined {
+  const p = state.pendingWork;
+  if (!p) return undefined;
+  return promptsFor(p.kind, needsSupervisor(ctx.work ?? DEFAULT_WORK_RULES, p.check), p.firstIsolated).find((x) => p.got[x.id] === undefined);
+}
+
+function onWorkPrompt(state: DialogueState, text: string, word: string, at: string, ctx: DialogueContext): DialogueState {
+  const p = state.pendingWork!;
+  if (word === 'back') return { ...state, pendingWork: undefined, error: `left check ${p.check.title} as it was` };
+  const prompt = workPrompt(state, ctx);
+  if (!prompt) return { ...state, pendingWork: undefined };
+  const problem = workAnswerProblem(prompt, text);
+  if (problem) return { ...state, error: problem };
+  const got = { ...p.got, [prompt.id]: text };
+  const next = { ...state, pendingWork: { ...p, got } };
+  return workPrompt(next, ctx) ? next : finishWork(next, p.kind, p.check, got, at, ctx);
+}
+
+function finishWork(state: DialogueState, kind: WorkEntry['kind'], check: CheckResult, got: Partial<Record<WorkPrompt['id'], string>>, at: string, ctx: DialogueContext): DialogueState {
+  const entry = entryFrom(kind, check.id, workerOf(state, ctx), at, got);
+  const who = entry.authorisedBy ? `, authorised by ${entry.authorisedBy} (${entry.authorisation})` : entry.signedOffBy ? `, signed off by ${entry.signedOffBy}` : '';
+  const text = `${kind === 'started' ? 'Started' : 'Done'}: ${check.title} — ${entry.by}, ${at.slice(11, 16)}${who}${entry.finding ? `; found: ${entry.finding}` : ''}.${state.notice ?? ''}`;
+  return { ...state, pendingWork: undefined, notice: undefined, work: [...state.work, entry], log: [...state.log, { kind: 'note', text }] };
 }
 
 /** The recording questions: back steps back within them; the last answer files the case. */

@@ -130,7 +130,7 @@ const outcome = z.strictObject({
   newCause: z.strictObject({ id: safeId, title: z.string().min(1) }).optional(),
   notes: z.string().optional(),
   fix: z.string().optional(),
-  date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'expected a date as YYYY-MM-DD').optional(),
+  date: z.iso.date({ error: 'expected a real date as YYYY-MM-DD' }).optional(),
   recordedBy: z.string().optional(),
   readingsAfter: readingsSchema.optional(),
   returnedToServiceBy: z.string().optional(),

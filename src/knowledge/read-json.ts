@@ -2,6 +2,7 @@
 import { readFileSync, statSync } from 'node:fs';
 import type * as z from 'zod';
 import { failed, ok, type Issue, type Result } from './result.js';
+import { oneLine, quote } from '../units/quote.js';
 
 /** Case, machine and rule files are small; anything larger is refused unread. */
 export const MAX_FILE_BYTES = 1024 * 1024;
@@ -27,7 +28,7 @@ export function readJson(file: string): Result<unknown> {
   try {
     return ok(JSON.parse(text) as unknown);
   } catch (e) {
-    return failed({ code: 'not-json', file, path: '', message: `not valid JSON (${(e as Error).message})` });
+    return failed({ code: 'not-json', file, path: '', message: `not valid JSON (${oneLine((e as Error).message, 120)})` });
   }
 }
 
@@ -49,8 +50,8 @@ export function formatPath(path: ReadonlyArray<PropertyKey>): string {
 function zodIssue(file: string, issue: z.core.$ZodIssue, prefix: string): Issue {
   const path = [prefix, formatPath(issue.path)].filter(Boolean).join('.');
   let message = issue.message;
-  if (issue.code === 'unrecognized_keys') message = `unknown field${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => `"${k}"`).join(', ')}`;
-  const got = 'input' in issue && issue.input !== undefined && typeof issue.input !== 'object' ? `${JSON.stringify(issue.input)}: ` : '';
+  if (issue.code === 'unrecognized_keys') message = `unknown field${issue.keys.length > 1 ? 's' : ''} ${issue.keys.slice(0, 5).map((k) => quote(k)).join(', ')}${issue.keys.length > 5 ? ` and ${issue.keys.length - 5} more` : ''}`;
+  const got = 'input' in issue && issue.input !== undefined && typeof issue.input !== 'object' ? `${quote(String(issue.input))}: ` : '';
   if (issue.code === 'invalid_value') message = `${got}expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`;
   else if (issue.code === 'invalid_type' || issue.code === 'invalid_format' || issue.code === 'too_big' || issue.code === 'too_small') message = `${got}${message}`;
   return { code: 'invalid', file, path, message };

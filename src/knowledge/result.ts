@@ -1,3 +1,5 @@
+import { oneLine } from '../units/quote.js';
+
 /**
  * Errors are data: every loader returns a Result, each issue names its file and field path.
  * Only the CLI turns issues into text on stderr and picks the exit code.
@@ -15,7 +17,7 @@ export type Result<T> = { ok: true; value: T } | { ok: false; issues: Issue[] };
 export const ok = <T>(value: T): Result<T> => ({ ok: true, value });
 export const failed = <T = never>(...issues: Issue[]): Result<T> => ({ ok: false, issues });
 
-/** One line per issue: `file: at path: message`. */
+/** One line per issue: `file: at path: message`, each safe for a terminal line. */
 export function formatIssues(issues: Issue[]): string {
-  return issues.map((i) => `${i.file}${i.path ? `: at ${i.path}` : ''}: ${i.message}`).join('\n');
+  return issues.map((i) => oneLine(`${i.file}${i.path ? `: at ${i.path}` : ''}: ${i.message}`, 800)).join('\n');
 }

@@ -104,7 +104,11 @@ export const safetyFile = z.strictObject({
     steps: z.array(z.strictObject({ id, says: z.string().min(1) })).length(5),
     dcSpecific: z.array(z.strictObject({ id, says: z.string().min(1) })),
     prevails: z.string().min(1),
+    /** The US practice that matches the five rules. */
+    usEquivalent: z.string().min(1),
   }),
+  /** Steps before a repaired machine runs again, in order. */
+  returnToService: z.array(z.strictObject({ id, says: z.string().min(1) })).min(1),
   hazards: z.array(z.strictObject({ id, says: z.string().min(1) })).min(1),
   warnings: z.array(z.strictObject({ id, says: z.string().min(1), isolateFirst: z.boolean() })).min(1),
   notice: z.string().min(1),

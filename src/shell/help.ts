@@ -26,6 +26,8 @@ Options:
   --adaptive      diagnose / cases check: ask the file only what the dialogue would ask
   --machine FILE  dialogue: take the machine from this file (a machine or a case file)
   --session FILE  dialogue: keep the session here
+  --report FILE   dialogue, diagnose: write the job report (Markdown, or HTML for FILE.html)
+  --role ROLE     dialogue: fitter, apprentice (checks beyond looking need a supervisor) or lead
 
 Without --rules/--cases, writing commands use DCTRIAGE_KNOWLEDGE, the "knowledge"
 folder of ~/.config/dctriage/settings.json, or rules/ and cases/ of a checkout.

@@ -8,7 +8,8 @@ import { Box, Static, Text, useApp, useStdout } from 'ink';
 import type { RuleEngines } from '../engine/run-rules.js';
 import { diagnose } from '../engine/diagnose.js';
 import { parseDraft } from '../dialogue/job.js';
-import { COMMANDS, currentStep, draftOf, initialState, outcomeStep, reduce, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
+import { COMMANDS, currentStep, draftOf, initialState, outcomeStep, reduce, resultChecks, workPrompt, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
+import { statusOf } from '../dialogue/work.js';
 import type { DialogueQuestion } from '../dialogue/questions.js';
 import type { Answer } from '../dialogue/job.js';
 import type { Diagnosis } from '../engine/diagnose.js';
@@ -27,6 +28,8 @@ export interface DialogueProps {
   onSave?: (answers: Answer[]) => string;
   /** Files the job with its recorded outcome as a case; returns the words to show. */
   onRecord?: (answers: Answer[], outcome: Answer[]) => string;
+  /** Writes the job report; returns the words to show. */
+  onReport?: (state: DialogueState) => string;
   onInterrupt?: () => void;
   color?: boolean;
 }
@@ -39,7 +42,7 @@ interface Line {
 
 const now = () => new Date().toISOString();
 
-export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers, onSave, onRecord, onInterrupt, color = true }: DialogueProps) {
+export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers, onSave, onRecord, onReport, onInterrupt, color = true }: DialogueProps) {
   const { exit } = useApp();
   const { stdout } = useStdout();
   const width = Math.max(40, stdout?.columns ?? 80);
@@ -72,7 +75,11 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
   useEffect(() => {
     if (state.recordRequested) dispatch({ type: 'saved', message: onRecord ? onRecord(state.answers, state.outcome) : 'recording is not available here' });
   }, [state.recordRequested]);
+  useEffect(() => {
+    if (state.reportRequested) dispatch({ type: 'saved', message: onReport ? onReport(state) : 'reports are not available here' });
+  }, [state.reportRequested]);
   const recording = state.phase === 'recording' ? outcomeStep(state, ctx) : undefined;
+  const working = workPrompt(state, ctx);
 
   const tone = (t: Line['tone']): { color?: string } => {
     const c = !color ? undefined : t === 'warning' ? 'red' : t === 'muted' ? 'gray' : t === 'answer' ? 'cyan' : undefined;
@@ -84,6 +91,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
     ...state.log.map((e, k): Line => {
       if (e.kind === 'answer') return { key: `l${k}`, text: `${prompt(e.answer.questionId)}  → ${e.answer.shown}`, tone: 'answer' };
       if (e.kind === 'withdrawn') return { key: `l${k}`, text: `↩ taken back: ${prompt(e.answer.questionId)} (was ${e.answer.shown})`, tone: 'muted' };
+      if (e.kind === 'note') return { key: `l${k}`, text: e.text, tone: 'answer' };
       return { key: `l${k}`, text: `${formatDiagnosis(e.diagnosis, { width })}\n\nQuestions ended: ${e.because}.` };
     }),
   ];
@@ -102,9 +110,15 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
       {state.panel && <Panel which={state.panel} state={state} ctx={ctx} diagnosis={diagnosis} safetyNotice={safetyNotice} width={width} />}
       {state.phase === 'asking' && step.kind === 'ask' && <QuestionView question={step.question} firstIsolated={step.question.state === 'isolated' && !state.answers.some((a) => ctx.flow.all.get(a.questionId)?.state === 'isolated')} ctx={ctx} color={color} />}
       {recording && <QuestionView question={recording} firstIsolated={false} ctx={ctx} color={color} />}
+      {working && <Text bold>? {state.pendingWork!.check.title}: {working.prompt}</Text>}
       {state.phase === 'asking' && step.kind === 'needs-diagnosis' && <Text>Working out the next question…</Text>}
       {state.phase === 'finishing' && <Text>Working out the result…</Text>}
-      {state.phase === 'result' && <Text>Type record to file the job with the cause you confirmed, save to keep it as it stands, back to change the last answer, or press Ctrl-C to leave (the session is kept).</Text>}
+      {state.phase === 'result' && !working && (
+        <Text>
+          Checks: {resultChecks(state).map((c, k) => `${k + 1} ${statusOf(state.work, c.id) === 'done' ? 'done' : statusOf(state.work, c.id) === 'started' ? 'started' : '–'}`).join(' · ')}{'\n'}
+          Type start N / done N as you work the checks, report for the job report, record to file the job with the cause you confirmed, save to keep it as it stands, back to change the last answer, or Ctrl-C to leave (the session is kept).
+        </Text>
+      )}
       {state.saved && <Text>{state.saved}</Text>}
       {state.error && <Text {...(color ? { color: 'red' } : {})}>✗ {state.error}</Text>}
       {state.phase !== 'notice' && <Text>&gt; {typed}</Text>}

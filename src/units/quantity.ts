@@ -3,6 +3,7 @@
  * number in the unit a field declares. mathjs lives here and nowhere else; user text is
  * only ever given to `unit()`, never to `evaluate` or `parse`.
  */
+import { quote } from './quote.js';
 import { create, unitDependencies, createUnitDependencies, type FactoryFunctionMap, type Unit } from 'mathjs';
 
 // The two factories are always defined; mathjs's typings mark every dependency map optional.
@@ -82,7 +83,7 @@ export function parseQuantity(input: string | number, dimension: Dimension): Qua
   if (typeof input === 'number') return checkRange(input, String(input), dimension);
   const text = input.trim();
   if (text === '') return fail({ code: 'empty' });
-  if (text.length > MAX_TEXT) return fail({ code: 'not-a-quantity', text: text.slice(0, MAX_TEXT) + '…' });
+  if (text.length > MAX_TEXT) return fail({ code: 'not-a-quantity', text });
   const normalized = normalizeQuantityText(text, dimension);
   if (/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i.test(normalized)) {
     return checkRange(Number(normalized), text, dimension);
@@ -126,15 +127,15 @@ export function describeQuantityError(e: QuantityError): string {
     case 'empty':
       return 'empty value: give a number with a unit, or leave the field out';
     case 'no-number':
-      return `"${e.text}" has no number in front of the unit`;
+      return `${quote(e.text)} has no number in front of the unit`;
     case 'not-a-quantity':
-      return `"${e.text}" is not a number with one unit (expected e.g. "14.5 V"; sums and formulas are not read)`;
+      return `${quote(e.text)} is not a number with one unit (expected e.g. "14.5 V"; sums and formulas are not read)`;
     case 'wrong-dimension':
-      return `"${e.text}" is not a ${dimensionName(e.expected)} (expected a value in ${unit(e.expected)})`;
+      return `${quote(e.text)} is not a ${dimensionName(e.expected)} (expected a value in ${unit(e.expected)})`;
     case 'negative':
-      return `"${e.text}" is negative; a ${dimensionName(e.expected)} here is a magnitude`;
+      return `${quote(e.text)} is negative; a ${dimensionName(e.expected)} here is a magnitude`;
     case 'out-of-range':
-      return `"${e.text}" is outside the plausible range for a ${dimensionName(e.expected)} (${e.min} to ${e.max} ${unit(e.expected)})`;
+      return `${quote(e.text)} is outside the plausible range for a ${dimensionName(e.expected)} (${e.min} to ${e.max} ${unit(e.expected)})`;
   }
 }
 

@@ -3,19 +3,20 @@ import { render } from 'ink-testing-library';
 import { buildFlow } from '../../src/dialogue/flow.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
 import type { Answer } from '../../src/dialogue/job.js';
+import type { WorkRules } from '../../src/dialogue/work.js';
 import { Dialogue } from '../../src/ui/Dialogue.js';
 import { builtInRules } from './rules.js';
 
 export const settle = (ms = 25) => new Promise((r) => setTimeout(r, ms));
 
-export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: unknown } = {}) {
+export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: unknown; work?: WorkRules } = {}) {
   const base = builtInRules();
   const flow = buildFlow(base);
   const saved: Answer[][] = [];
   const recorded: { answers: Answer[]; outcome: Answer[] }[] = [];
   const app = render(
     <Dialogue
-      ctx={{ flow, machineFile: opts.machineFile }}
+      ctx={{ flow, machineFile: opts.machineFile, ...(opts.work ? { work: opts.work } : {}) }}
       engine={buildEngine(base)}
       safetyNotice={base.safety.notice}
       initialAnswers={opts.initialAnswers ?? []}

@@ -18,6 +18,7 @@ async function openJob(d: ReturnType<typeof renderDialogue>) {
   await d.type('F');
   await d.type('WO-9001');
   await d.type('winder 2');
+  await d.type('A. Fitter');
   await d.type('3'); // runs faster than it should
 }
 
@@ -124,12 +125,48 @@ describe('the dialogue', () => {
     d.unmount();
   });
 
+  it('as an apprentice, needs a supervisor to start a check beyond looking and to sign it off', async () => {
+    const d = renderDialogue({ work: { role: 'apprentice', apprenticesMayTestLive: false } });
+    await openJob(d);
+    await d.type('done');
+    const screen = d.screen();
+    const checks = screen.slice(screen.lastIndexOf('Checks, in order:')).split('\n').filter((l) => /^ ?\d+\. /.test(l));
+    const n = (state: RegExp) => checks.findIndex((l) => state.test(l)) + 1;
+    const live = n(/LIVE TEST/);
+    const isolated = n(/\[isolated/);
+    if (live > 0) {
+      await d.type(`start ${live}`);
+      expect(d.lastFrame()).toContain('the site does not allow apprentices to do live tests');
+    }
+    expect(isolated).toBeGreaterThan(0);
+    await d.type(`done ${isolated}`);
+    expect(d.lastFrame()).toContain(`check ${isolated} has not been started`);
+    await d.type(`start ${isolated}`);
+    expect(d.lastFrame()).toContain('Supervisor authorising this check');
+    await d.type(''); // refusing an empty name
+    expect(d.lastFrame()).toContain('a supervisor must be named');
+    await d.type('R. Lead');
+    await d.type('present');
+    await d.type('Isolator Q3');
+    await d.type('L-12');
+    await d.type('R. Lead');
+    await d.type('two-pole tester T-7');
+    const flat = () => d.screen().replace(/\s+/g, ' ');
+    expect(flat()).toMatch(/Started: .+ — A\. Fitter, \d\d:\d\d, authorised by R\. Lead \(present\)/);
+    await d.type(`done ${isolated}`);
+    await d.type('found the rheostat track burnt');
+    expect(d.lastFrame()).toContain('Supervisor signing it off');
+    await d.type('R. Lead');
+    expect(flat()).toMatch(/Done: .+ — A\. Fitter, \d\d:\d\d, signed off by R\. Lead; found: found the rheostat track burnt/);
+    d.unmount();
+  });
+
   it('resumes an interrupted session with every answer', async () => {
     const first = renderDialogue();
     await openJob(first);
     const answers = first.saved.at(-1)!;
     first.unmount();
-    expect(answers.length).toBe(15);
+    expect(answers.length).toBe(16);
     const again = renderDialogue({ initialAnswers: answers });
     await again.type('causes');
     const screen = again.screen();

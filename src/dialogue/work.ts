@@ -1,0 +1,104 @@
+/**
+ * Working the checks after the result: who started and finished each one, when, and for an
+ * apprentice the supervisor who authorised a live or isolated check and signed it off. Names
+ * are recorded as stated; nothing here verifies them.
+ */
+import type { CheckResult } from '../engine/diagnose.js';
+
+export const ROLES = ['fitter', 'apprentice', 'lead'] as const;
+export type Role = (typeof ROLES)[number];
+
+export interface WorkRules {
+  role: Role;
+  /** Site setting: may an apprentice do live tests at all (under authorisation)? */
+  apprenticesMayTestLive: boolean;
+}
+
+export interface WorkEntry {
+  check: string;
+  kind: 'started' | 'done';
+  at: string;
+  by: string;
+  authorisedBy?: string;
+  authorisation?: 'present' | 'remote';
+  signedOffBy?: string;
+  finding?: string;
+  /** Recorded when the first isolated check starts: how the machine was made safe. */
+  isolation?: { points?: string; locks?: string; provedDeadBy?: string; tester?: string };
+}
+
+/** An apprentice needs a supervisor for anything beyond looking. */
+export function needsSupervisor(rules: WorkRules, check: Pick<CheckResult, 'state'>): boolean {
+  return rules.role === 'apprentice' && check.state !== 'observe';
+}
+
+/** Why this person may not start this check at all, if they may not. */
+export function forbidden(rules: WorkRules, check: Pick<CheckResult, 'state'>): string | undefined {
+  if (rules.role === 'apprentice' && check.state === 'live-test' && !rules.apprenticesMayTestLive) {
+    return 'the site does not allow apprentices to do live tests: a qualified person does this one';
+  }
+  return undefined;
+}
+
+export function statusOf(work: readonly WorkEntry[], checkId: string): 'not started' | 'started' | 'done' {
+  if (work.some((w) => w.check === checkId && w.kind === 'done')) return 'done';
+  if (work.some((w) => w.check === checkId && w.kind === 'started')) return 'started';
+  return 'not started';
+}
+
+/** A question asked while starting or finishing a check. */
+export interface WorkPrompt {
+  id: 'authorised-by' | 'authorisation' | 'finding' | 'signed-off-by' | 'isolation-points' | 'locks' | 'proved-dead-by' | 'tester';
+  prompt: string;
+  required: boolean;
+}
+
+/** The questions that record the isolation, asked when the first isolated check starts. */
+const ISOLATION_PROMPTS: WorkPrompt[] = [
+  { id: 'isolation-points', prompt: 'Isolation points (isolators, breakers, fuses opened)?', required: false },
+  { id: 'locks', prompt: 'Lock and tag numbers?', required: false },
+  { id: 'proved-dead-by', prompt: 'Who proved it dead (tester proved before and after)?', required: true },
+  { id: 'tester', prompt: 'Which voltage tester?', required: false },
+];
+
+export function promptsFor(kind: WorkEntry['kind'], supervised: boolean, firstIsolated = false): WorkPrompt[] {
+  if (kind === 'started') {
+    return [
+      ...(supervised
+        ? [
+            { id: 'authorised-by' as const, prompt: 'Supervisor authorising this check (name or initials)?', required: true },
+            { id: 'authorisation' as const, prompt: 'Is the supervisor present or giving it remotely? (present / remote)', required: true },
+          ]
+        : []),
+      ...(firstIsolated ? ISOLATION_PROMPTS : []),
+    ];
+  }
+  return [
+    { id: 'finding', prompt: 'What did you find?', required: false },
+    ...(supervised ? [{ id: 'signed-off-by' as const, prompt: 'Supervisor signing it off (name or initials)?', required: true }] : []),
+  ];
+}
+
+/** A reason the answer cannot stand, or undefined. */
+export function workAnswerProblem(p: WorkPrompt, text: string): string | undefined {
+  if (p.required && text === '') return p.id === 'proved-dead-by' ? 'this is needed: name who proved the machine dead' : 'this is needed: a supervisor must be named';
+  if (p.id === 'authorisation' && !['present', 'remote'].includes(text.toLowerCase())) return 'answer present or remote';
+  return undefined;
+}
+
+export function entryFrom(kind: WorkEntry['kind'], check: string, by: string, at: string, got: Partial<Record<WorkPrompt['id'], string>>): WorkEntry {
+  const e: WorkEntry = { check, kind, at, by };
+  if (got['authorised-by']) e.authorisedBy = got['authorised-by'];
+  if (got.authorisation) e.authorisation = got.authorisation.toLowerCase() === 'remote' ? 'remote' : 'present';
+  if (got['signed-off-by']) e.signedOffBy = got['signed-off-by'];
+  if (got.finding) e.finding = got.finding;
+  if (got['proved-dead-by'] !== undefined) {
+    const iso: NonNullable<WorkEntry['isolation']> = {};
+    if (got['isolation-points']) iso.points = got['isolation-points'];
+    if (got.locks) iso.locks = got.locks;
+    if (got['proved-dead-by']) iso.provedDeadBy = got['proved-dead-by'];
+    if (got.tester) iso.tester = got.tester;
+    e.isolation = iso;
+  }
+  return e;
+}

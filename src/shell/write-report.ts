@@ -1,0 +1,37 @@
+/**
+ * Writes the job report: Markdown with the characteristic as an SVG file beside it, or one HTML
+ * page (a path ending .html) with the SVG inline. A path the fitter names is replaced atomically;
+ * without one, a new file that replaces nothing is made in the working folder.
+ */
+import { closeSync, fsyncSync, openSync, renameSync, writeSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
+import { speedCurves } from '../model/curve.js';
+import { speedChartSvg } from '../chart/svg-chart.js';
+import { jobReport, type ReportInput } from '../report/job-report.js';
+import { htmlReport } from '../report/html-report.js';
+import { writeNewFile } from './write-new-file.js';
+
+function replaceAtomically(file: string, text: string): void {
+  const tmp = join(dirname(file), `.${basename(file)}.${process.pid}.tmp`);
+  const fd = openSync(tmp, 'w');
+  try {
+    writeSync(fd, text);
+    fsyncSync(fd);
+  } finally {
+    closeSync(fd);
+  }
+  renameSync(tmp, file);
+}
+
+/** Returns where the report went. Throws on a file system error, for the caller to word. */
+export function writeReport(path: string | undefined, input: Omit<ReportInput, 'chartFile'>, cwd: string): string {
+  const curves = speedCurves({ machine: input.job.machine, readings: input.job.readings });
+  const svg = curves ? speedChartSvg(curves) : undefined;
+  const html = path?.endsWith('.html') ?? false;
+  const target = path ?? writeNewFile(cwd, `dctriage-report-${input.generatedAt.slice(0, 10)}`, '.md', '').file;
+  const chartFile = svg && !html ? `${basename(target).replace(/\.[^.]+$/, '')}.svg` : undefined;
+  const markdown = jobReport({ ...input, ...(chartFile ? { chartFile } : {}) });
+  if (chartFile && svg) replaceAtomically(join(dirname(target), chartFile), svg);
+  replaceAtomically(target, html ? htmlReport(markdown, `Job report ${input.job.job?.asset ?? ''}`.trim(), svg) : markdown);
+  return target;
+}
