@@ -25,6 +25,7 @@ import { writeNewFile } from './shell/write-new-file.js';
 import { fileCase } from './shell/file-case.js';
 import { outcomeOf } from './dialogue/outcome.js';
 import { writeReport } from './shell/write-report.js';
+import { chartText } from './shell/chart-text.js';
 import { readSettings } from './shell/settings.js';
 import { ROLES, type Role } from './dialogue/work.js';
 import { parseDraft } from './dialogue/job.js';
@@ -85,6 +86,7 @@ async function main(argv: string[]): Promise<number> {
         'from-case': { type: 'string' },
         force: { type: 'boolean' },
         report: { type: 'string' },
+        'no-chart': { type: 'boolean' },
         role: { type: 'string' },
       },
     });
@@ -107,7 +109,11 @@ async function main(argv: string[]): Promise<number> {
       const c = loadCase(file, causeIdsOf(base.value));
       if (!c.ok) return fail(c.issues);
       const e = computeExpectations(modelInput(c.value));
-      out(opts.json ? JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2) : formatExpectation(e));
+      if (opts.json) out(JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2));
+      else {
+        const chart = opts['no-chart'] ? undefined : chartText(modelInput(c.value), terminalWidth(), useColor());
+        out(formatExpectation(e) + (chart ? `\n\n${chart}` : ''));
+      }
       return 0;
     }
     case 'diagnose': {
@@ -133,7 +139,7 @@ async function main(argv: string[]): Promise<number> {
         }, null, 2));
       } else {
         if (opts.report === undefined && replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
-        out(formatDiagnosis(d));
+        out(formatDiagnosis(d, { chart: opts['no-chart'] ? undefined : chartText(modelInput(c.value), terminalWidth(), useColor()) }));
       }
       if (opts.report !== undefined) {
         try {
@@ -259,6 +265,7 @@ async function dialogue(resume: boolean, opts: { rules?: string | undefined; cas
     safetyNotice: base.value.safety.notice,
     initialAnswers,
     color: !process.env.NO_COLOR,
+    chart: (job) => chartText({ machine: job.machine, readings: job.readings }, process.stdout.columns ?? 80, !process.env.NO_COLOR),
     onAnswers: (answers) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers }),
     onSave: (answers) => saveJob(jobFromAnswers(answers, machineFile)),
     onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role),
@@ -278,6 +285,9 @@ function saveJob(draft: unknown): string {
 }
 
 const today = () => new Date().toISOString().slice(0, 10);
+const terminalWidth = () => process.stdout.columns ?? 80;
+/** Colour only on a terminal, and never with NO_COLOR; the chart itself is drawn either way. */
+const useColor = () => !process.env.NO_COLOR && process.stdout.isTTY === true;
 
 /** The job report from the dialogue as it stands: the last result shown and the work done since. */
 function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role): string {

@@ -4,7 +4,7 @@ import { formatExpectation } from './format-expect.js';
 
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'LIVE TEST (qualified person)', isolated: 'isolated' } as const;
 
-export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?: number } = {}): string {
+export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?: number; chart?: string | undefined } = {}): string {
   const parts: string[] = [];
   if (d.warnings.length) parts.push(d.warnings.map((w) => `!! ${w.says}`).join('\n'));
   if (d.causes.length === 0) parts.push('No cause stands out from what is known. Add readings or observations and run again.');
@@ -18,6 +18,7 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
     );
   }
   if (opts.readings !== false) parts.push('Readings against a healthy machine:\n' + formatExpectation(d.expectation, opts.width));
+  if (opts.chart) parts.push(opts.chart);
   if (d.checks.length) {
     const title = new Map(d.causes.map((c) => [c.id, c.title]));
     const lines: string[] = [];

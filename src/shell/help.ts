@@ -28,6 +28,7 @@ Options:
   --session FILE  dialogue: keep the session here
   --report FILE   dialogue, diagnose: write the job report (Markdown, or HTML for FILE.html)
   --role ROLE     dialogue: fitter, apprentice (checks beyond looking need a supervisor) or lead
+  --no-chart      expect, diagnose: leave out the speed–current chart
 
 Without --rules/--cases, writing commands use DCTRIAGE_KNOWLEDGE, the "knowledge"
 folder of ~/.config/dctriage/settings.json, or rules/ and cases/ of a checkout.

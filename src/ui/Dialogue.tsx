@@ -11,6 +11,7 @@ import { parseDraft } from '../dialogue/job.js';
 import { COMMANDS, currentStep, draftOf, initialState, outcomeStep, reduce, resultChecks, workPrompt, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
 import { statusOf } from '../dialogue/work.js';
 import type { DialogueQuestion } from '../dialogue/questions.js';
+import type { CaseFile } from '../knowledge/case-schema.js';
 import type { Answer } from '../dialogue/job.js';
 import type { Diagnosis } from '../engine/diagnose.js';
 import { formatDiagnosis } from '../shell/format-diagnosis.js';
@@ -32,6 +33,8 @@ export interface DialogueProps {
   onReport?: (state: DialogueState) => string;
   onInterrupt?: () => void;
   color?: boolean;
+  /** Draws the machine's characteristic for the result; none when absent or not drawable. */
+  chart?: (job: CaseFile) => string | undefined;
 }
 
 interface Line {
@@ -42,7 +45,7 @@ interface Line {
 
 const now = () => new Date().toISOString();
 
-export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers, onSave, onRecord, onReport, onInterrupt, color = true }: DialogueProps) {
+export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers, onSave, onRecord, onReport, onInterrupt, color = true, chart }: DialogueProps) {
   const { exit } = useApp();
   const { stdout } = useStdout();
   const width = Math.max(40, stdout?.columns ?? 80);
@@ -92,7 +95,8 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
       if (e.kind === 'answer') return { key: `l${k}`, text: `${prompt(e.answer.questionId)}  → ${e.answer.shown}`, tone: 'answer' };
       if (e.kind === 'withdrawn') return { key: `l${k}`, text: `↩ taken back: ${prompt(e.answer.questionId)} (was ${e.answer.shown})`, tone: 'muted' };
       if (e.kind === 'note') return { key: `l${k}`, text: e.text, tone: 'answer' };
-      return { key: `l${k}`, text: `${formatDiagnosis(e.diagnosis, { width })}\n\nQuestions ended: ${e.because}.` };
+      const job = parseDraft(draftOf(state, ctx));
+      return { key: `l${k}`, text: `${formatDiagnosis(e.diagnosis, { width, chart: job.ok && chart ? chart(job.job) : undefined })}\n\nQuestions ended: ${e.because}.` };
     }),
   ];
   const leaders = diagnosis?.causes.slice(0, 3) ?? [];
