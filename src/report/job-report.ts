@@ -42,7 +42,7 @@ export function jobReport(r: ReportInput): string {
   const lines: string[] = [];
   const title = [j.asset, j.workOrder].filter(Boolean).join(' — ') || 'DC machine job';
   lines.push(`# Job report: ${esc(title)}`, '');
-  lines.push('| | |', '|---|---|');
+  lines.push('| Job | |', '|---|---|');
   const row = (k: string, v: string | undefined) => v && lines.push(`| ${k} | ${cell(v)} |`);
   row('Work order', j.workOrder);
   row('Asset', j.asset);

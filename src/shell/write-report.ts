@@ -29,9 +29,10 @@ export function writeReport(path: string | undefined, input: Omit<ReportInput, '
   const svg = curves ? speedChartSvg(curves) : undefined;
   const html = path?.endsWith('.html') ?? false;
   const target = path ?? writeNewFile(cwd, `dctriage-report-${input.generatedAt.slice(0, 10)}`, '.md', '').file;
-  const chartFile = svg && !html ? `${basename(target).replace(/\.[^.]+$/, '')}.svg` : undefined;
+  // In HTML the image line is replaced by the drawing itself (see htmlReport).
+  const chartFile = svg ? `${basename(target).replace(/\.[^.]+$/, '')}.svg` : undefined;
   const markdown = jobReport({ ...input, ...(chartFile ? { chartFile } : {}) });
-  if (chartFile && svg) replaceAtomically(join(dirname(target), chartFile), svg);
+  if (chartFile && svg && !html) replaceAtomically(join(dirname(target), chartFile), svg);
   replaceAtomically(target, html ? htmlReport(markdown, `Job report ${input.job.job?.asset ?? ''}`.trim(), svg) : markdown);
   return target;
 }
