@@ -1,8 +1,11 @@
 // Bundles the CLI into one ESM file so start-up does not pay for thousands of module loads.
 import { build } from 'esbuild';
-import { chmodSync, readFileSync } from 'node:fs';
+import { chmodSync, readFileSync, rmSync } from 'node:fs';
 
 const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8'));
+
+// Old chunks would pile up under their hashed names.
+rmSync('dist', { recursive: true, force: true });
 
 await build({
   entryPoints: ['src/cli.tsx'],

@@ -143,7 +143,7 @@ async function main(argv: string[]): Promise<number> {
       }
       if (opts.report !== undefined) {
         try {
-          const where = writeReport(opts.report, { job: c.value, raw: rawCase(file) as Record<string, unknown>, diagnosis: d, safety: base.value.safety, generatedAt: new Date().toISOString() }, process.cwd());
+          const where = await writeReport(opts.report, { job: c.value, raw: rawCase(file) as Record<string, unknown>, diagnosis: d, safety: base.value.safety, generatedAt: new Date().toISOString() }, process.cwd());
           process.stderr.write(`Job report written to ${where}\n`);
         } catch (e) {
           return fail([{ code: 'unreadable', file: opts.report, path: '', message: `could not write the report: ${(e as Error).message}` }]);
@@ -290,13 +290,13 @@ const terminalWidth = () => process.stdout.columns ?? 80;
 const useColor = () => !process.env.NO_COLOR && process.stdout.isTTY === true;
 
 /** The job report from the dialogue as it stands: the last result shown and the work done since. */
-function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role): string {
+async function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role): Promise<string> {
   const draft = jobFromAnswers(state.answers, machineFile);
   const parsed = parseDraft(draft);
   const result = [...state.log].reverse().find((e) => e.kind === 'result');
   if (!parsed.ok || !result || result.kind !== 'result') return 'No report yet: the result is not on screen.';
   try {
-    const where = writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result.diagnosis, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString() }, process.cwd());
+    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result.diagnosis, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString() }, process.cwd());
     return `Job report written to ${where}`;
   } catch (e) {
     return `Could not write the report: ${(e as Error).message}. The session is kept.`;

@@ -24,7 +24,7 @@ function replaceAtomically(file: string, text: string): void {
 }
 
 /** Returns where the report went. Throws on a file system error, for the caller to word. */
-export function writeReport(path: string | undefined, input: Omit<ReportInput, 'chartFile'>, cwd: string): string {
+export async function writeReport(path: string | undefined, input: Omit<ReportInput, 'chartFile'>, cwd: string): Promise<string> {
   const curves = speedCurves({ machine: input.job.machine, readings: input.job.readings });
   const svg = curves ? speedChartSvg(curves) : undefined;
   const html = path?.endsWith('.html') ?? false;
@@ -33,6 +33,6 @@ export function writeReport(path: string | undefined, input: Omit<ReportInput, '
   const chartFile = svg ? `${basename(target).replace(/\.[^.]+$/, '')}.svg` : undefined;
   const markdown = jobReport({ ...input, ...(chartFile ? { chartFile } : {}) });
   if (chartFile && svg && !html) replaceAtomically(join(dirname(target), chartFile), svg);
-  replaceAtomically(target, html ? htmlReport(markdown, `Job report ${input.job.job?.asset ?? ''}`.trim(), svg) : markdown);
+  replaceAtomically(target, html ? await htmlReport(markdown, `Job report ${input.job.job?.asset ?? ''}`.trim(), svg) : markdown);
   return target;
 }

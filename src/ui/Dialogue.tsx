@@ -29,8 +29,8 @@ export interface DialogueProps {
   onSave?: (answers: Answer[]) => string;
   /** Files the job with its recorded outcome as a case; returns the words to show. */
   onRecord?: (answers: Answer[], outcome: Answer[]) => string;
-  /** Writes the job report; returns the words to show. */
-  onReport?: (state: DialogueState) => string;
+  /** Writes the job report; resolves to the words to show. */
+  onReport?: (state: DialogueState) => Promise<string>;
   onInterrupt?: () => void;
   color?: boolean;
   /** Draws the machine's characteristic for the result; none when absent or not drawable. */
@@ -79,7 +79,9 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
     if (state.recordRequested) dispatch({ type: 'saved', message: onRecord ? onRecord(state.answers, state.outcome) : 'recording is not available here' });
   }, [state.recordRequested]);
   useEffect(() => {
-    if (state.reportRequested) dispatch({ type: 'saved', message: onReport ? onReport(state) : 'reports are not available here' });
+    if (!state.reportRequested) return;
+    if (!onReport) dispatch({ type: 'saved', message: 'reports are not available here' });
+    else void onReport(state).then((message) => dispatch({ type: 'saved', message }));
   }, [state.reportRequested]);
   const recording = state.phase === 'recording' ? outcomeStep(state, ctx) : undefined;
   const working = workPrompt(state, ctx);
