@@ -55,7 +55,9 @@ function pickOption(options: { value: string; label: string }[], text: string) {
   return (
     options.find((o) => o.value === t || o.label.toLowerCase() === t) ??
     // A unique prefix of a value or label is enough: "ru" for running.
-    unique(options.filter((o) => o.value.startsWith(t) || o.label.toLowerCase().startsWith(t)))
+    unique(options.filter((o) => o.value.startsWith(t) || o.label.toLowerCase().startsWith(t))) ??
+    // So is a unique word of a label: "blower" for "separate blower".
+    (t.length >= 3 ? unique(options.filter((o) => o.label.toLowerCase().split(/[\s(),/]+/).some((w) => w.startsWith(t)))) : undefined)
   );
 }
 

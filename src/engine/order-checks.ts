@@ -7,9 +7,10 @@
  * Otherwise the observe and live-test checks come before the isolated ones, so the machine is
  * isolated once.
  *
- * Within a group, a check is worth what it tells per minute: the chance it confirms one of its
- * causes plus the binary entropy of that chance (how evenly it splits the likely causes), over
- * its minutes.
+ * Within a group, checks go in falling order of the chance they find the fault per minute they
+ * take (p/c): the order that finds a single fault soonest on average when each check confirms or
+ * clears its causes: the classic least-cost testing order of search theory (Mitten, 1960;
+ * Kadane and Simon, 1977; references from memory).
  */
 import type { Check } from '../knowledge/rulebase-schema.js';
 
@@ -25,8 +26,6 @@ export interface OrderedCheck {
   causes: string[];
 }
 
-const entropy = (p: number) => (p <= 0 || p >= 1 ? 0 : -(p * Math.log2(p) + (1 - p) * Math.log2(1 - p)));
-
 export function orderChecks(ranked: RankedCause[], checks: Check[], safetyFirst: boolean): OrderedCheck[] {
   const byId = new Map(checks.map((c) => [c.id, c]));
   const causesOf = new Map<string, string[]>();
@@ -36,7 +35,7 @@ export function orderChecks(ranked: RankedCause[], checks: Check[], safetyFirst:
   const share = new Map(ranked.map((c) => [c.id, c.share]));
   const worth = (id: string) => {
     const p = Math.min(1, (causesOf.get(id) ?? []).reduce((s, c) => s + (share.get(c) ?? 0), 0));
-    return (p + entropy(p)) / byId.get(id)!.minutes;
+    return p / byId.get(id)!.minutes;
   };
   const group = (c: Check): number => {
     if (safetyFirst) return c.state === 'isolated' ? (c.clearsFaultBeforeEnergising ? 0 : 1) : 2;
