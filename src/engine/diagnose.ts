@@ -103,14 +103,14 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
   causes.sort((a, b) => b.score - a.score || a.id.localeCompare(b.id));
 
   const warnings = base.safety.warnings.filter((w) => warningIds.has(w.id));
-  const safetyFirst = warnings.some((w) => w.isolateFirst);
+  const order = warnings.some((w) => w.clearFaultFirst) ? 'clear-fault-first' : warnings.some((w) => w.isolateFirst) ? 'isolate-first' : 'normal';
   const leading = causes.slice(0, CAUSES_WITH_CHECKS);
   const total = leading.reduce((s, c) => s + c.score, 0) || 1;
   const catalogue = new Map(base.causes.map((c) => [c.id, c]));
   const ordered = orderChecks(
     leading.map((c) => ({ id: c.id, share: c.score / total, checks: catalogue.get(c.id)!.checks })),
     base.checks,
-    safetyFirst,
+    order,
   );
   const checks = ordered.map(({ check, causes }) => ({
     id: check.id,

@@ -1,9 +1,9 @@
 /**
  * Orders the checks that confirm or clear the ranked causes.
  *
- * Safety first: when a fault trip or a runaway warning applies, the machine is not to be
- * energised again until the fault is cleared, so isolated checks come first, the insulation and
- * winding tests that clear the fault at their head, and nothing energised before them.
+ * Safety first: when a runaway warning applies, the machine is not run again to look, so isolated
+ * checks come first; after an earth-fault or overcurrent trip the insulation and winding tests
+ * that clear the fault head them, and nothing is energised before them.
  * Otherwise the observe and live-test checks come before the isolated ones, so the machine is
  * isolated once.
  *
@@ -26,7 +26,10 @@ export interface OrderedCheck {
   causes: string[];
 }
 
-export function orderChecks(ranked: RankedCause[], checks: Check[], safetyFirst: boolean): OrderedCheck[] {
+/** normal: look and test live, then isolate once; isolate-first: isolated checks first; clear-fault-first: and the fault-clearing tests at their head. */
+export type CheckOrder = 'normal' | 'isolate-first' | 'clear-fault-first';
+
+export function orderChecks(ranked: RankedCause[], checks: Check[], order: CheckOrder): OrderedCheck[] {
   const byId = new Map(checks.map((c) => [c.id, c]));
   const causesOf = new Map<string, string[]>();
   for (const cause of ranked) {
@@ -38,7 +41,8 @@ export function orderChecks(ranked: RankedCause[], checks: Check[], safetyFirst:
     return p / byId.get(id)!.minutes;
   };
   const group = (c: Check): number => {
-    if (safetyFirst) return c.state === 'isolated' ? (c.clearsFaultBeforeEnergising ? 0 : 1) : 2;
+    if (order === 'clear-fault-first') return c.state === 'isolated' ? (c.clearsFaultBeforeEnergising ? 0 : 1) : 2;
+    if (order === 'isolate-first') return c.state === 'isolated' ? 0 : 1;
     return c.state === 'isolated' ? 1 : 0;
   };
   return [...causesOf.keys()]

@@ -110,7 +110,18 @@ export const safetyFile = z.strictObject({
   /** Steps before a repaired machine runs again, in order. */
   returnToService: z.array(z.strictObject({ id, says: z.string().min(1) })).min(1),
   hazards: z.array(z.strictObject({ id, says: z.string().min(1) })).min(1),
-  warnings: z.array(z.strictObject({ id, says: z.string().min(1), isolateFirst: z.boolean() })).min(1),
+  warnings: z
+    .array(
+      z.strictObject({
+        id,
+        says: z.string().min(1),
+        /** Nothing energised before isolated checks: the machine is not run again to look. */
+        isolateFirst: z.boolean(),
+        /** After a fault trip: the insulation and winding tests that clear the fault come first of all. */
+        clearFaultFirst: z.boolean().optional(),
+      }),
+    )
+    .min(1),
   notice: z.string().min(1),
 });
 
