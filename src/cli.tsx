@@ -21,7 +21,7 @@ import { validate } from './knowledge/read-json.js';
 import { ok, type Result } from './knowledge/result.js';
 import { jobFromAnswers, type Answer } from './dialogue/job.js';
 import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Session } from './shell/session.js';
-import { writeNewFile } from './shell/write-new-file.js';
+import { writeNewFile } from './shell/safe-write.js';
 import { fileCase } from './shell/file-case.js';
 import { outcomeOf } from './dialogue/outcome.js';
 import { writeReport } from './shell/write-report.js';
@@ -99,15 +99,9 @@ async function main(argv: string[]): Promise<number> {
   const [command, ...rest] = positionals;
   switch (command) {
     case 'expect': {
-      const file = rest[0];
-      if (!file) throw new UsageError('expect needs a case file: dctriage expect FILE');
-      // A recorded cause must be one of the catalogue in use, as for every other command.
-      const k = knowledge(opts, true);
-      if (!k.ok) return fail(k.issues);
-      const base = loadRuleBase(k.value.rules);
-      if (!base.ok) return fail(base.issues);
-      const c = loadCase(file, causeIdsOf(base.value));
-      if (!c.ok) return fail(c.issues);
+      const job = loadJob(rest[0], 'expect', opts);
+      if (!job.ok) return fail(job.issues);
+      const { c } = job.value;
       const e = computeExpectations(modelInput(c.value));
       if (opts.json) out(JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2));
       else {
@@ -117,14 +111,9 @@ async function main(argv: string[]): Promise<number> {
       return 0;
     }
     case 'diagnose': {
-      const file = rest[0];
-      if (!file) throw new UsageError('diagnose needs a case file: dctriage diagnose FILE');
-      const k = knowledge(opts, true);
-      if (!k.ok) return fail(k.issues);
-      const base = loadRuleBase(k.value.rules);
-      if (!base.ok) return fail(base.issues);
-      const c = loadCase(file, causeIdsOf(base.value));
-      if (!c.ok) return fail(c.issues);
+      const job = loadJob(rest[0], 'diagnose', opts);
+      if (!job.ok) return fail(job.issues);
+      const { file, base, c } = job.value;
       const engine = buildEngine(base.value);
       const replay = opts.adaptive ? await replayCase(rawCase(file), buildFlow(base.value), engine) : undefined;
       const d = replay?.diagnosis ?? (await diagnose(c.value, base.value, engine));
@@ -211,6 +200,18 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
   if (!report.ok) return fail(report.issues);
   out(opts.json ? JSON.stringify(report.value, null, 2) : formatCaseCheck(report.value));
   return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
+}
+
+/** A job file with the rule base in use: a recorded cause must be one of its catalogue. */
+function loadJob(file: string | undefined, command: string, opts: { rules?: string | undefined; cases?: string | undefined }) {
+  if (!file) throw new UsageError(`${command} needs a case file: dctriage ${command} FILE`);
+  const k = knowledge(opts, true);
+  if (!k.ok) return k;
+  const base = loadRuleBase(k.value.rules);
+  if (!base.ok) return base;
+  const c = loadCase(file, causeIdsOf(base.value));
+  if (!c.ok) return c;
+  return ok({ file, base, c });
 }
 
 /** Where the rules and cases are; reading commands fall back to the built-in folders. */

@@ -7,7 +7,7 @@ import { caseSchema, SAFE_ID, type CaseFile } from '../knowledge/case-schema.js'
 import { stableJson } from '../knowledge/canonical.js';
 import { readJson } from '../knowledge/read-json.js';
 import { failed, ok, type Result } from '../knowledge/result.js';
-import { writeNewFile, type WriteOptions } from './write-new-file.js';
+import { writeNewFile, type WriteOptions } from './safe-write.js';
 
 export interface Filed {
   file: string;

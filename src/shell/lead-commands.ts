@@ -2,7 +2,7 @@
  * The workshop lead's commands: file a case, draft a rule from it, review a rule folder, adopt
  * a draft. Each returns what to print and the exit code; the CLI prints.
  */
-import { closeSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, unlinkSync, writeSync } from 'node:fs';
+import { mkdirSync, readdirSync, unlinkSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import type { CaseFile } from '../knowledge/case-schema.js';
 import { stableJson } from '../knowledge/canonical.js';
@@ -15,7 +15,7 @@ import { checkCases, type CaseCheckReport } from '../engine/check-cases.js';
 import { reviewRuleBase, type RuleFinding } from '../engine/check-rules.js';
 import { draftFromCase, withDraft, type DraftFile } from '../engine/draft-rule.js';
 import { fileCase } from './file-case.js';
-import { writeNewFile } from './write-new-file.js';
+import { replaceFile, writeNewFile } from './safe-write.js';
 
 export interface Outcome {
   code: number;
@@ -127,19 +127,6 @@ export async function checkRules(rulesDir: string, casesDir: string, asJson: boo
   const err = report.findings.map((f) => `${f.file}: ${f.about ? `${f.about}: ` : ''}${f.message}`).join('\n');
   const text = asJson ? json(report) : report.clean ? 'Rule folder clean: every check passed and every recorded case ranks in its top 3.' : '';
   return { code: report.clean ? 0 : 1, ...(text ? { out: text } : {}), ...(err ? { err } : {}) };
-}
-
-/** Replaces a catalogue file on purpose: write aside, sync, rename over. */
-function replaceFile(file: string, text: string): void {
-  const tmp = `${file}.${process.pid}.tmp`;
-  const fd = openSync(tmp, 'w');
-  try {
-    writeSync(fd, text);
-    fsyncSync(fd);
-  } finally {
-    closeSync(fd);
-  }
-  renameSync(tmp, file);
 }
 
 export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: string, base: RuleBase, force: boolean): Promise<Outcome> {

@@ -2,7 +2,8 @@
  * The dialogue's session on disk: written after every answer, synchronously and atomically
  * (write a temporary file, fsync, rename), so a killed process or a closed terminal loses nothing.
  */
-import { closeSync, fsyncSync, mkdirSync, openSync, renameSync, writeSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
+import { replaceFile } from './safe-write.js';
 import { homedir } from 'node:os';
 import { dirname, join } from 'node:path';
 import * as z from 'zod';
@@ -42,16 +43,8 @@ export function defaultSessionFile(env = process.env): string {
 
 export function writeSession(file: string, s: { rules: string; machineFile?: unknown; answers: readonly Answer[] }): void {
   mkdirSync(dirname(file), { recursive: true });
-  const tmp = `${file}.${process.pid}.tmp`;
-  const fd = openSync(tmp, 'w', 0o600);
-  try {
-    const answers = s.answers.map(({ questionId, value, shown, at }) => ({ questionId, value, shown, at }));
-    writeSync(fd, JSON.stringify({ format: SESSION_FORMAT, savedAt: new Date().toISOString(), rules: s.rules, machineFile: s.machineFile, answers }, null, 2) + '\n');
-    fsyncSync(fd);
-  } finally {
-    closeSync(fd);
-  }
-  renameSync(tmp, file);
+  const answers = s.answers.map(({ questionId, value, shown, at }) => ({ questionId, value, shown, at }));
+  replaceFile(file, JSON.stringify({ format: SESSION_FORMAT, savedAt: new Date().toISOString(), rules: s.rules, machineFile: s.machineFile, answers }, null, 2) + '\n', 0o600);
 }
 
 export function readSession(file: string): Result<Session> {

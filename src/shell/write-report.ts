@@ -3,25 +3,12 @@
  * page (a path ending .html) with the SVG inline. A path the fitter names is replaced atomically;
  * without one, a new file that replaces nothing is made in the working folder.
  */
-import { closeSync, fsyncSync, openSync, renameSync, writeSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import { speedCurves } from '../model/curve.js';
 import { speedChartSvg } from '../chart/svg-chart.js';
 import { jobReport, type ReportInput } from '../report/job-report.js';
 import { htmlReport } from '../report/html-report.js';
-import { writeNewFile } from './write-new-file.js';
-
-function replaceAtomically(file: string, text: string): void {
-  const tmp = join(dirname(file), `.${basename(file)}.${process.pid}.tmp`);
-  const fd = openSync(tmp, 'w');
-  try {
-    writeSync(fd, text);
-    fsyncSync(fd);
-  } finally {
-    closeSync(fd);
-  }
-  renameSync(tmp, file);
-}
+import { replaceFile, writeNewFile } from './safe-write.js';
 
 /** Returns where the report went. Throws on a file system error, for the caller to word. */
 export async function writeReport(path: string | undefined, input: Omit<ReportInput, 'chartFile'>, cwd: string): Promise<string> {
@@ -32,7 +19,7 @@ export async function writeReport(path: string | undefined, input: Omit<ReportIn
   // In HTML the image line is replaced by the drawing itself (see htmlReport).
   const chartFile = svg ? `${basename(target).replace(/\.[^.]+$/, '')}.svg` : undefined;
   const markdown = jobReport({ ...input, ...(chartFile ? { chartFile } : {}) });
-  if (chartFile && svg && !html) replaceAtomically(join(dirname(target), chartFile), svg);
-  replaceAtomically(target, html ? await htmlReport(markdown, `Job report ${input.job.job?.asset ?? ''}`.trim(), svg) : markdown);
+  if (chartFile && svg && !html) replaceFile(join(dirname(target), chartFile), svg);
+  replaceFile(target, html ? await htmlReport(markdown, `Job report ${input.job.job?.asset ?? ''}`.trim(), svg) : markdown);
   return target;
 }

@@ -1,10 +1,27 @@
 /**
- * Writes a file that never replaces another: the content goes to a temporary file first (and
- * is synced), then is linked to the final name, which fails if that name exists; the next
- * suffix (-2, -3, …) is tried. An interrupted write leaves no half-written file under a final name.
+ * Writing files so that an interrupted write never leaves half a file under a final name:
+ * `writeNewFile` never replaces another file (temporary file, sync, link to the final name, which
+ * fails if it exists, then the next suffix -2, -3, …); `replaceFile` replaces one on purpose
+ * (temporary file, sync, rename over it).
  */
-import { closeSync, fsyncSync, linkSync, openSync, unlinkSync, writeSync } from 'node:fs';
-import { join } from 'node:path';
+import { closeSync, fsyncSync, linkSync, openSync, renameSync, unlinkSync, writeSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
+
+function writeSynced(file: string, text: string, flags: string, mode = 0o644): void {
+  const fd = openSync(file, flags, mode);
+  try {
+    writeSync(fd, text);
+    fsyncSync(fd);
+  } finally {
+    closeSync(fd);
+  }
+}
+
+export function replaceFile(file: string, text: string, mode = 0o644): void {
+  const tmp = join(dirname(file), `.${basename(file)}.${process.pid}.tmp`);
+  writeSynced(tmp, text, 'w', mode);
+  renameSync(tmp, file);
+}
 
 export interface Written {
   file: string;
@@ -27,13 +44,7 @@ export function writeNewFile(dir: string, stem: string, ext: string, content: st
     const name = n === 1 ? `${stem}${ext}` : `${stem}-${n}${ext}`;
     const text = typeof content === 'function' ? content(n) : content;
     const tmp = join(dir, `.${name}.${process.pid}.${Date.now()}.tmp`);
-    const fd = openSync(tmp, 'wx', 0o644);
-    try {
-      writeSync(fd, text);
-      fsyncSync(fd);
-    } finally {
-      closeSync(fd);
-    }
+    writeSynced(tmp, text, 'wx');
     try {
       link(tmp, join(dir, name));
       return { file: join(dir, name), suffix: n };
