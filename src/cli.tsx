@@ -48,7 +48,7 @@ import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
 import { USAGE } from './shell/help.js';
-import { addCase, adoptDraft, checkRules, draftRule, type Outcome } from './shell/lead-commands.js';
+import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
 import { resolveKnowledge } from './shell/settings.js';
 
 /** The built-in rule folder ships beside the bundle (dist/../rules). */
@@ -88,6 +88,7 @@ async function main(argv: string[]): Promise<number> {
         report: { type: 'string' },
         'no-chart': { type: 'boolean' },
         role: { type: 'string' },
+        close: { type: 'string' },
       },
     });
   } catch (e) {
@@ -166,6 +167,14 @@ async function main(argv: string[]): Promise<number> {
         return print(await adoptDraft(rest[1], k.value.rules, k.value.cases, base.value, !!opts.force));
       }
       throw new UsageError('rules takes a subcommand: check, draft --from-case FILE, adopt DRAFT');
+    }
+    case 'review': {
+      if (!rest[0]) throw new UsageError('review needs a saved job: dctriage review FILE [--close NAME]');
+      const k = knowledge(opts, true);
+      if (!k.ok) return fail(k.issues);
+      const base = loadRuleBase(k.value.rules);
+      if (!base.ok) return fail(base.issues);
+      return print(await reviewJob(rest[0], base.value, opts.close, new Date().toISOString()));
     }
     case undefined:
     case 'resume':

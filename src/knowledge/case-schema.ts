@@ -123,6 +123,9 @@ const job = z.strictObject({
   startedAt: z.string().optional(),
   permit: z.string().optional(),
   isolation: isolation.optional(),
+  /** A lead's review: who closed the job and when. */
+  closedBy: z.string().min(1).optional(),
+  closedAt: z.string().optional(),
 });
 
 const outcome = z.strictObject({

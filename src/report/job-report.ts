@@ -55,6 +55,7 @@ export function jobReport(r: ReportInput): string {
   row('Locks', isolation?.locks?.join(', '));
   row('Proved dead by', isolation?.provedDeadBy);
   row('Tester', isolation?.tester);
+  row('Closed by', j.closedBy && `${j.closedBy}${j.closedAt ? ` at ${j.closedAt}` : ''}`);
   row('Report written', r.generatedAt);
   lines.push('');
 

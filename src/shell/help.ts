@@ -17,6 +17,7 @@ Usage:
   dctriage rules draft --from-case FILE draft a rule from a recorded case
   dctriage rules check [--json]         review the rule folder, then run every recorded case
   dctriage rules adopt DRAFT [--force]  move a reviewed draft into the rule folder
+  dctriage review FILE [--close NAME]   a lead's review of a saved job: its report; --close marks it closed
   dctriage --help | --version
 
 Options:

@@ -4,7 +4,7 @@
  */
 import { mkdirSync, readdirSync, unlinkSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import type { CaseFile } from '../knowledge/case-schema.js';
+import { caseSchema, type CaseFile } from '../knowledge/case-schema.js';
 import { stableJson } from '../knowledge/canonical.js';
 import { loadCase } from '../knowledge/load-case.js';
 import { crossCheck, loadRuleBase, type RuleBase } from '../knowledge/load-rules.js';
@@ -15,6 +15,9 @@ import { checkCases, type CaseCheckReport } from '../engine/check-cases.js';
 import { reviewRuleBase, type RuleFinding } from '../engine/check-rules.js';
 import { draftFromCase, withDraft, type DraftFile } from '../engine/draft-rule.js';
 import { fileCase } from './file-case.js';
+import { diagnose } from '../engine/diagnose.js';
+import { buildEngine } from '../engine/run-rules.js';
+import { jobReport } from '../report/job-report.js';
 import { replaceFile, writeNewFile } from './safe-write.js';
 
 export interface Outcome {
@@ -39,6 +42,26 @@ export function addCase(file: string, casesDir: string, base: RuleBase, today: s
   if (!filed.ok) return bad(filed.issues);
   const note = filed.value.requestedId ? ` (id "${filed.value.requestedId}" was taken: filed as "${filed.value.id}")` : '';
   return { code: 0, out: `Filed ${filed.value.file}${note}` };
+}
+
+/** A lead's review of a saved job: its report on stdout, and with `closeBy` the job marked closed. */
+export async function reviewJob(file: string, base: RuleBase, closeBy: string | undefined, now: string): Promise<Outcome> {
+  const c = loadCase(file, new Set(base.causes.map((x) => x.id)));
+  if (!c.ok) return bad(c.issues);
+  const raw = readJson(file);
+  if (!raw.ok) return bad(raw.issues);
+  const d = await diagnose(c.value, base, buildEngine(base));
+  const text = jobReport({ job: c.value, raw: raw.value as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: now });
+  if (closeBy === undefined) return { code: 0, out: text };
+  if (closeBy.trim() === '') return bad([{ code: 'invalid', file, path: 'job.closedBy', message: 'name who closes the job: --close NAME' }]);
+  const data = raw.value as Record<string, unknown>;
+  const job = { ...(data.job as Record<string, unknown> | undefined), closedBy: closeBy, closedAt: now };
+  try {
+    replaceFile(file, stableJson({ ...data, job }, caseSchema));
+  } catch (e) {
+    return bad([{ code: 'unreadable', file, path: '', message: `could not mark the job closed: ${(e as Error).message}` }]);
+  }
+  return { code: 0, out: `${text}\nClosed by ${closeBy} at ${now}; written to ${file}.` };
 }
 
 export interface RankChange {

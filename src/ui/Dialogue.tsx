@@ -123,6 +123,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
         <Text>
           Checks: {resultChecks(state).map((c, k) => `${k + 1} ${statusOf(state.work, c.id) === 'done' ? 'done' : statusOf(state.work, c.id) === 'started' ? 'started' : '–'}`).join(' · ')}{'\n'}
           Type start N / done N as you work the checks, report for the job report, record to file the job with the cause you confirmed, save to keep it as it stands, back to change the last answer, or Ctrl-C to leave (the session is kept).
+          {ctx.work?.role === 'lead' ? '\nAs lead: record files the job in the cases folder; then dctriage rules draft --from-case FILE proposes a rule from it, and dctriage review FILE --close NAME closes a saved job.' : ''}
         </Text>
       )}
       {state.saved && <Text>{state.saved}</Text>}

@@ -191,3 +191,20 @@ describe('dctriage rules draft and adopt', () => {
     expect(runCli(['rules', 'check'], { env, cwd: k }).code).toBe(0);
   });
 });
+
+describe('dctriage review', () => {
+  it('shows a saved job as its report, and --close marks it closed by a named lead', () => {
+    const dir = emptyDir();
+    const file = join(dir, 'job.json');
+    writeFileSync(file, readFileSync(demo, 'utf8'));
+    const look = runCli(['review', file, '--rules', join(CASES_DIR, '..', 'rules')]);
+    expect(look.code).toBe(0);
+    expect(look.stdout).toContain('# Job report: PF-3 feed roll');
+    expect(JSON.parse(readFileSync(file, 'utf8')).job.closedBy).toBeUndefined();
+    const close = runCli(['review', file, '--close', 'R. Lead', '--rules', join(CASES_DIR, '..', 'rules')]);
+    expect(close.code).toBe(0);
+    const job = JSON.parse(readFileSync(file, 'utf8')).job;
+    expect(job.closedBy).toBe('R. Lead');
+    expect(runCli(['review', file, '--rules', join(CASES_DIR, '..', 'rules')]).stdout).toContain('| Closed by | R. Lead at ');
+  });
+});
