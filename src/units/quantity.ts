@@ -6,11 +6,21 @@
 import { quote } from './quote.js';
 import { create, unitDependencies, createUnitDependencies, type FactoryFunctionMap, type Unit } from 'mathjs';
 
-// The two factories are always defined; mathjs's typings mark every dependency map optional.
-const math = create({ unitDependencies, createUnitDependencies } as FactoryFunctionMap, {});
-// rpm as revolutions per minute, 1/time, so it converts to Hz (rev/s) as well.
-math.createUnit('rpm', '1 / min');
-math.createUnit('megohm', '1 Mohm');
+/**
+ * The private mathjs instance, made on first use: building its unit system costs tens of
+ * milliseconds, which --help, --version and the dialogue's first frame should not pay.
+ */
+let instance: ReturnType<typeof create> | undefined;
+function math(): ReturnType<typeof create> {
+  if (!instance) {
+    // The two factories are always defined; mathjs's typings mark every dependency map optional.
+    instance = create({ unitDependencies, createUnitDependencies } as FactoryFunctionMap, {});
+    // rpm as revolutions per minute, 1/time, so it converts to Hz (rev/s) as well.
+    instance.createUnit('rpm', '1 / min');
+    instance.createUnit('megohm', '1 Mohm');
+  }
+  return instance;
+}
 
 /** What a field holds, with its default unit and the range a real DC machine job can show. */
 export const DIMENSIONS = {
@@ -94,12 +104,12 @@ export function parseQuantity(input: string | number, dimension: Dimension): Qua
   }
   let parsed: Unit;
   try {
-    parsed = math.unit(normalized) as Unit;
+    parsed = math().unit(normalized) as Unit;
   } catch {
     return fail({ code: 'not-a-quantity', text });
   }
   if (parsed.value === null) return fail({ code: 'no-number', text });
-  if (!parsed.equalBase(math.unit(spec.unit))) return fail({ code: 'wrong-dimension', text, expected: dimension });
+  if (!parsed.equalBase(math().unit(spec.unit))) return fail({ code: 'wrong-dimension', text, expected: dimension });
   return checkRange(parsed.toNumber(spec.unit), text, dimension);
 }
 
