@@ -31,7 +31,7 @@ for (const f of readdirSync(casesDir).filter((n) => n.endsWith('.json')).sort())
   for (let k = 0; k < 3; k++) {
     const t0 = performance.now();
     const d = await diagnose(c.value, base, engine);
-    nextStep(flow, { answers: opening, machineGiven: true, diagnosis: d, job: c.value });
+    nextStep(flow, { answers: opening, machineGiven: true, jobGiven: true, diagnosis: d, job: c.value });
     times.push(performance.now() - t0);
   }
 }

@@ -35,8 +35,12 @@ export type Next = { kind: 'ask'; question: DialogueQuestion; gain?: number } | 
 
 export interface Progress {
   answers: readonly Answer[];
+  /** An apprentice: live and isolated measurements are done as checks, under a supervisor's authorisation, not asked as questions. */
+  supervisedOnly?: boolean;
   /** The machine came from a file: its questions are not asked. */
   machineGiven: boolean;
+  /** The job details came from a file (replaying a case): not asked either. */
+  jobGiven?: boolean;
   /** The diagnosis of the answers as they stand, once the machine's connection is known. */
   diagnosis?: Diagnosis | undefined;
   /** The job as the engine reads it, for judging which readings can be used. */
@@ -46,13 +50,13 @@ export interface Progress {
 export function nextStep(flow: Flow, p: Progress): Next {
   const answered = new Set(p.answers.map((a) => a.questionId));
   for (const q of flow.opening) if (!answered.has(q.id)) return { kind: 'ask', question: q };
-  if (!p.machineGiven) {
-    for (const q of flow.machine) {
-      if (answered.has(q.id) || q.id === 'symptoms') continue;
-      if (q.id === 'feedback' && !drivesMayHaveFeedback(p.answers)) continue;
-      if (q.target.section === 'nameplate' && q.target.name.startsWith('field') && !hasWoundShuntField(p.answers)) continue;
-      return { kind: 'ask', question: q };
-    }
+  for (const q of flow.machine) {
+    if (answered.has(q.id) || q.id === 'symptoms') continue;
+    // A machine file answers the machine's questions, not the job's (work order, asset, who).
+    if (q.target.section === 'job' ? p.jobGiven : p.machineGiven) continue;
+    if (q.id === 'feedback' && !drivesMayHaveFeedback(p.answers)) continue;
+    if (q.target.section === 'nameplate' && q.target.name.startsWith('field') && !hasWoundShuntField(p.answers)) continue;
+    return { kind: 'ask', question: q };
   }
   if (!answered.has('symptoms')) return { kind: 'ask', question: flow.all.get('symptoms')! };
   if (!p.diagnosis) return { kind: 'needs-diagnosis' };
@@ -66,6 +70,7 @@ export function nextStep(flow: Flow, p: Progress): Next {
     (!q.source?.askWhen || d.askable.has(q.id)) &&
     // After a fault trip or a runaway warning nothing is asked that means running it again.
     !(safetyFirst && (q.source?.needsRunning || q.state === 'live-test')) &&
+    !(p.supervisedOnly && q.state !== 'observe') &&
     (q.target.section !== 'readings' || readingIsUsable(p.job, q.target.name));
   const first = flow.adaptive.find((q) => d.askFirst.has(q.id) && available(q));
   if (first) return { kind: 'ask', question: first };

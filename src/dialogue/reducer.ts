@@ -7,6 +7,7 @@
 import type { CheckResult, Diagnosis } from '../engine/diagnose.js';
 import { parseAnswer, cleanInput } from './answers.js';
 import { nextStep, type Flow, type Next } from './flow.js';
+import type { DialogueQuestion } from './questions.js';
 import { jobFromAnswers, parseDraft, type Answer } from './job.js';
 import { nextOutcomeQuestion, outcomeAnswerProblem } from './outcome.js';
 import { entryFrom, forbidden, needsSupervisor, promptsFor, statusOf, workAnswerProblem, type WorkEntry, type WorkPrompt, type WorkRules } from './work.js';
@@ -18,7 +19,9 @@ export type LogEntry =
   | { kind: 'answer'; answer: Answer }
   | { kind: 'withdrawn'; answer: Answer }
   | { kind: 'result'; diagnosis: Diagnosis; because: string }
-  | { kind: 'note'; text: string };
+  | { kind: 'note'; text: string }
+  /** A panel asked for (why, causes, safety, help), as things stood when it was asked. */
+  | { kind: 'panel'; which: Panel; diagnosis?: Diagnosis | undefined; question?: DialogueQuestion | undefined };
 
 export interface DialogueState {
   /** `finishing`: the questions are over and the result waits for the diagnosis of the last answers. */
@@ -30,7 +33,6 @@ export interface DialogueState {
   diagnosis?: { version: number; value: Diagnosis } | undefined;
   /** One line saying why the last input was not taken; the question is asked again. */
   error?: string | undefined;
-  panel?: Panel | undefined;
   /** Why the questions ended. */
   endedBecause?: string | undefined;
   /** The fitter asked to save the job; the shell writes it and answers with `saved`. */
@@ -99,6 +101,7 @@ export function currentStep(state: DialogueState, ctx: DialogueContext): Next {
   const parsed = parseDraft(draftOf(state, ctx));
   const diagnosis = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
   return nextStep(ctx.flow, {
+    supervisedOnly: ctx.work?.role === 'apprentice',
     answers: state.answers,
     machineGiven: ctx.machineFile !== undefined,
     diagnosis,
@@ -130,14 +133,19 @@ export function reduce(state: DialogueState, event: DialogueEvent, ctx: Dialogue
 function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueContext): DialogueState {
   const text = cleanInput(typed);
   const word = text.toLowerCase();
-  const base = { ...state, error: undefined, panel: undefined };
+  const base = { ...state, error: undefined };
   if (state.phase === 'notice') return { ...base, phase: 'asking' };
   if (word === 'back') {
     const last = state.answers.at(-1);
     if (!last) return { ...base, error: 'nothing to go back to yet' };
     return withAnswers({ ...base, phase: 'asking', endedBecause: undefined, log: [...state.log, { kind: 'withdrawn', answer: last }] }, state.answers.slice(0, -1));
   }
-  if (word === 'why' || word === 'causes' || word === 'safety' || word === 'help') return { ...base, panel: word };
+  if (word === 'why' || word === 'causes' || word === 'safety' || word === 'help') {
+    // Panels go into the transcript, not the live area: a tall live area makes the terminal redraw everything.
+    const step = state.phase === 'asking' ? currentStep(state, ctx) : undefined;
+    const diagnosis = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
+    return { ...base, log: [...state.log, { kind: 'panel', which: word, diagnosis, question: step?.kind === 'ask' ? step.question : undefined }] };
+  }
   if (state.phase === 'recording') return onOutcomeInput(base, text, word, at, ctx);
   if (state.pendingWork) return onWorkPrompt(base, text, word, at, ctx);
   const work = /^(start|done) +(\d+)$/.exec(word);

@@ -29,7 +29,7 @@ export async function replayCase(raw: CaseInput, flow: Flow, engine: RuleEngines
     if (!parsed.ok) throw new Error(`case does not parse during replay: ${parsed.reason}`);
     const job: CaseFile = parsed.job;
     const diagnosis = await diagnose(job, flow.base, engine);
-    const step = nextStep(flow, { answers: [...answers, symptomsAnswer], machineGiven: true, diagnosis, job });
+    const step = nextStep(flow, { answers: [...answers, symptomsAnswer], machineGiven: true, jobGiven: true, diagnosis, job });
     if (step.kind !== 'ask') return { diagnosis, questionsAsked: asked, stoppedBecause: step.kind === 'done' ? step.why : 'no diagnosis' };
     asked.push(step.question.id);
     answers.push({ questionId: step.question.id, target: step.question.target, value: answerFromFile(raw, step.question), shown: '', at: '' });

@@ -55,8 +55,8 @@ export interface WorkPrompt {
 
 /** The questions that record the isolation, asked when the first isolated check starts. */
 const ISOLATION_PROMPTS: WorkPrompt[] = [
-  { id: 'isolation-points', prompt: 'Isolation points (isolators, breakers, fuses opened)?', required: false },
-  { id: 'locks', prompt: 'Lock and tag numbers?', required: false },
+  { id: 'isolation-points', prompt: 'Isolation points (isolators, breakers, fuses opened)?', required: true },
+  { id: 'locks', prompt: 'Lock and tag numbers?', required: true },
   { id: 'proved-dead-by', prompt: 'Who proved it dead (tester proved before and after)?', required: true },
   { id: 'tester', prompt: 'Which voltage tester?', required: false },
 ];
@@ -79,9 +79,18 @@ export function promptsFor(kind: WorkEntry['kind'], supervised: boolean, firstIs
   ];
 }
 
+const REQUIRED_BECAUSE: Partial<Record<WorkPrompt['id'], string>> = {
+  'authorised-by': 'this cannot be left unknown: a supervisor must be named',
+  authorisation: 'this cannot be left unknown: answer present or remote',
+  'signed-off-by': 'this cannot be left unknown: a supervisor must sign it off',
+  'isolation-points': 'this cannot be left unknown: say what was opened to isolate the machine',
+  locks: 'this cannot be left unknown: give the lock or tag numbers',
+  'proved-dead-by': 'this cannot be left unknown: name who proved the machine dead',
+};
+
 /** A reason the answer cannot stand, or undefined. */
 export function workAnswerProblem(p: WorkPrompt, text: string): string | undefined {
-  if (p.required && text === '') return p.id === 'proved-dead-by' ? 'this is needed: name who proved the machine dead' : 'this is needed: a supervisor must be named';
+  if (p.required && text === '') return REQUIRED_BECAUSE[p.id] ?? 'this is needed';
   if (p.id === 'authorisation' && !['present', 'remote'].includes(text.toLowerCase())) return 'answer present or remote';
   return undefined;
 }

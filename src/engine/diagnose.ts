@@ -131,11 +131,17 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
     checks,
     isolation: {
       beforeCheck: firstIsolated?.id ?? null,
-      steps: firstIsolated ? [...iso.steps.map((s) => s.says), ...iso.dcSpecific.map((s) => s.says), iso.prevails] : [],
+      steps: firstIsolated ? isolationSteps(iso, job.machine.drive ?? 'unknown') : [],
     },
     expectation,
     facts,
     askable,
     askFirst,
   };
+}
+
+/** The isolation in the order it is done: make the shaft and the field safe, the five rules, then what applies to this drive. */
+export function isolationSteps(iso: RuleBase['safety']['isolation'], drive: string): string[] {
+  const dc = iso.dcSpecific.filter((s) => !s.drives || (s.drives as string[]).includes(drive));
+  return [...dc.filter((s) => s.when === 'before').map((s) => s.says), ...iso.steps.map((s) => s.says), ...dc.filter((s) => s.when === 'after').map((s) => s.says), iso.prevails];
 }

@@ -102,7 +102,8 @@ export const safetyFile = z.strictObject({
   isolation: z.strictObject({
     source: z.string().min(1),
     steps: z.array(z.strictObject({ id, says: z.string().min(1) })).length(5),
-    dcSpecific: z.array(z.strictObject({ id, says: z.string().min(1) })),
+    /** DC-specific steps: `before` disconnecting (stop and restrain the shaft, bring the field down) or `after` it; some apply only to some drives. */
+    dcSpecific: z.array(z.strictObject({ id, says: z.string().min(1), when: z.enum(['before', 'after']), drives: z.array(z.enum(DRIVES)).min(1).optional() })),
     prevails: z.string().min(1),
     /** The US practice that matches the five rules. */
     usEquivalent: z.string().min(1),

@@ -114,9 +114,8 @@ export function jobReport(r: ReportInput): string {
   d.checks.forEach((c, k) => {
     if (c.id === d.isolation.beforeCheck) {
       lines.push(`**Before check ${k + 1}, isolate** (${iso.source}):`, '');
-      iso.steps.forEach((s, i) => lines.push(`   ${i + 1}. ${s.says}`));
-      for (const s of iso.dcSpecific) lines.push(`   - ${s.says}`);
-      lines.push(`   - ${iso.prevails}`, '');
+      d.isolation.steps.forEach((s, i) => lines.push(`   ${i + 1}. ${s}`));
+      lines.push('');
     }
     const started = work.find((w) => w.check === c.id && w.kind === 'started');
     const done = work.find((w) => w.check === c.id && w.kind === 'done');

@@ -6,7 +6,7 @@
 import { useEffect, useMemo, useReducer, useRef } from 'react';
 import { Box, Static, Text, useApp, useStdout } from 'ink';
 import type { RuleEngines } from '../engine/run-rules.js';
-import { diagnose } from '../engine/diagnose.js';
+import { diagnose, isolationSteps } from '../engine/diagnose.js';
 import { parseDraft } from '../dialogue/job.js';
 import { COMMANDS, currentStep, draftOf, initialState, outcomeStep, reduce, resultChecks, workPrompt, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
 import { statusOf } from '../dialogue/work.js';
@@ -97,6 +97,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
       if (e.kind === 'answer') return { key: `l${k}`, text: `${prompt(e.answer.questionId)}  → ${e.answer.shown}`, tone: 'answer' };
       if (e.kind === 'withdrawn') return { key: `l${k}`, text: `↩ taken back: ${prompt(e.answer.questionId)} (was ${e.answer.shown})`, tone: 'muted' };
       if (e.kind === 'note') return { key: `l${k}`, text: e.text, tone: 'answer' };
+      if (e.kind === 'panel') return { key: `l${k}`, text: panelText(e.which, e.question, ctx, e.diagnosis, safetyNotice, width), tone: 'muted' };
       const job = parseDraft(draftOf(state, ctx));
       return { key: `l${k}`, text: `${formatDiagnosis(e.diagnosis, { width, chart: job.ok && chart ? chart(job.job) : undefined })}\n\nQuestions ended: ${e.because}.` };
     }),
@@ -111,9 +112,8 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
         <Box flexDirection="column">{diagnosis.warnings.map((w) => <Text key={w.id} {...(color ? { color: 'red' } : {})}>!! {w.says}</Text>)}</Box>
       )}
       {state.phase === 'asking' && leaders.length > 0 && (
-        <Text wrap="truncate-end">Leading: {leaders.map((c, k) => `${k + 1} ${c.title} ${c.score.toFixed(2)}`).join(' · ')}</Text>
+        <Text>Leading: {leaders.map((c, k) => `${k + 1} ${c.title} ${c.score.toFixed(2)}`).join(' · ')}</Text>
       )}
-      {state.panel && <Panel which={state.panel} state={state} ctx={ctx} diagnosis={diagnosis} safetyNotice={safetyNotice} width={width} />}
       {state.phase === 'asking' && step.kind === 'ask' && <QuestionView question={step.question} firstIsolated={step.question.state === 'isolated' && !state.answers.some((a) => ctx.flow.all.get(a.questionId)?.state === 'isolated')} ctx={ctx} color={color} />}
       {recording && <QuestionView question={recording} firstIsolated={false} ctx={ctx} color={color} />}
       {working && <Text bold>? {state.pendingWork!.check.title}: {working.prompt}</Text>}
@@ -129,7 +129,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
       {state.saved && <Text>{state.saved}</Text>}
       {state.error && <Text {...(color ? { color: 'red' } : {})}>✗ {state.error}</Text>}
       {state.phase !== 'notice' && <Text>&gt; {typed}</Text>}
-      <Text {...(color ? { color: 'gray' } : {})} wrap="truncate-end">Enter alone = unknown · back · why · causes · safety · done · help · Ctrl-C quits (saved)</Text>
+      <Text {...(color ? { color: 'gray' } : {})} >{width < 70 ? 'Enter=unknown · back why causes safety done help · Ctrl-C' : 'Enter alone = unknown · back · why · causes · safety · done · help · Ctrl-C (kept)'}</Text>
     </Box>
   );
 }
@@ -155,16 +155,12 @@ function unitOf(d: string): string {
   return ({ voltage: 'V', signedVoltage: 'V', current: 'A', resistance: 'Ω', insulation: 'MΩ', power: 'W', speed: 'rpm', temperature: '°C', pressure: 'kPa', length: 'mm' } as Record<string, string>)[d] ?? '';
 }
 
-function Panel({ which, state, ctx, diagnosis, safetyNotice, width }: { which: string; state: DialogueState; ctx: DialogueContext; diagnosis: Diagnosis | undefined; safetyNotice: string; width: number }) {
+function panelText(which: string, question: DialogueQuestion | undefined, ctx: DialogueContext, diagnosis: Diagnosis | undefined, safetyNotice: string, width: number): string {
   if (which === 'safety') {
     const iso = ctx.flow.base.safety.isolation;
-    return <Text>{safetyNotice}{'\n'}{iso.steps.map((s, k) => `${k + 1}. ${s.says}`).join('\n')}{'\n'}{iso.dcSpecific.map((s) => `- ${s.says}`).join('\n')}{'\n'}{iso.prevails}</Text>;
+    return [safetyNotice, 'To isolate:', ...isolationSteps(iso, 'unknown').map((s, k) => `${k + 1}. ${s}`)].join('\n');
   }
-  if (which === 'help') return <Text>{Object.entries(COMMANDS).map(([w, says]) => `${w.padEnd(7)} ${says}`).join('\n')}{'\n'}Choices: their number or word. Quantities: as the meter reads, e.g. 14,5 V or 1450 rpm.</Text>;
-  if (which === 'causes') {
-    if (!diagnosis) return <Text>No ranking yet: the machine's connection is needed first.</Text>;
-    return <Text>{formatDiagnosis({ ...diagnosis, checks: [] }, { readings: false, width })}</Text>;
-  }
-  const step = currentStep(state, ctx);
-  return <Text>{step.kind === 'ask' ? whyAsked(step.question, ctx.flow, diagnosis) : 'No question is waiting.'}</Text>;
+  if (which === 'help') return [...Object.entries(COMMANDS).map(([w, says]) => `${w.padEnd(8)} ${says}`), 'Choices: their number or word. Quantities: as the meter reads, e.g. 14,5 V or 1450 rpm.'].join('\n');
+  if (which === 'causes') return diagnosis ? formatDiagnosis({ ...diagnosis, checks: [] }, { readings: false, width }) : "No ranking yet: the machine's connection is needed first.";
+  return question ? whyAsked(question, ctx.flow, diagnosis) : 'No question is waiting.';
 }

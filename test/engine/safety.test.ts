@@ -27,6 +27,11 @@ describe('the isolation sequence', () => {
     expect(iso.prevails).toMatch(/Local regulations, site procedures and licensed practice prevail/);
   });
 
+  it('gives the DC hazards, the shaft and the field before disconnecting and the DC link after', () => {
+    const when = Object.fromEntries(base.safety.isolation.dcSpecific.map((s) => [s.id, s.when]));
+    expect(when).toEqual({ 'turning-shaft': 'before', 'field-circuit': 'before', 'dc-link': 'after' });
+  });
+
   it('gives the DC hazards: stored charge, a turning shaft generating, never opening a live field', () => {
     const says = base.safety.isolation.dcSpecific.map((s) => s.says).join(' ');
     expect(says).toMatch(/DC link/);
@@ -55,7 +60,14 @@ describe('every recorded case', () => {
       const d = await diagnose(c.value, base, engine);
       const firstIsolated = d.checks.find((x) => x.state === 'isolated');
       expect(d.isolation.beforeCheck).toBe(firstIsolated?.id ?? null);
-      if (firstIsolated) expect(d.isolation.steps.slice(0, 5)).toEqual(base.safety.isolation.steps.map((s) => s.says));
+      if (firstIsolated) {
+        // Shaft and field made safe first, then the five rules in their order, then the drive's DC link.
+        const five = base.safety.isolation.steps.map((s) => s.says);
+        const at = d.isolation.steps.indexOf(five[0]!);
+        expect(d.isolation.steps.slice(at, at + 5)).toEqual(five);
+        expect(d.isolation.steps.slice(0, at).some((s) => /restrain the load/.test(s))).toBe(true);
+        expect(d.isolation.steps.some((s) => /DC link/.test(s))).toBe(c.value.machine.drive !== 'fixed-supply');
+      }
       const safetyFirst = d.warnings.some((w) => base.safety.warnings.find((x) => x.id === w.id)?.isolateFirst);
       const states = d.checks.map((x) => x.state);
       if (safetyFirst) expect(states[0]).toBe('isolated');
