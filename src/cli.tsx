@@ -274,10 +274,11 @@ async function dialogue(resume: boolean, opts: { rules?: string | undefined; cas
     engine: buildEngine(base.value),
     safetyNotice: base.value.safety.notice,
     initialAnswers,
+    initialWork: saved?.work ?? [],
     color: !process.env.NO_COLOR,
     chart: (job) => chartText({ machine: job.machine, readings: job.readings }, process.stdout.columns ?? 80, !process.env.NO_COLOR),
-    onAnswers: (answers) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers }),
-    onSave: (answers) => saveJob(jobFromAnswers(answers, machineFile)),
+    onAnswers: (answers, work) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work }),
+    onSave: (answers, outcome) => saveJob({ ...jobFromAnswers(answers, machineFile), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
     onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role),
     onRecord: (answers, outcome) => recordJob({ ...jobFromAnswers(answers, machineFile), outcome: outcomeOf(outcome, today()) }, base.value, opts),
   });

@@ -81,8 +81,8 @@ export const COMMANDS = {
   help: 'these commands',
 } as const;
 
-export function initialState(answers: Answer[] = []): DialogueState {
-  return { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [], work: [] };
+export function initialState(answers: Answer[] = [], work: WorkEntry[] = []): DialogueState {
+  return { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [], work };
 }
 
 /** Ends the questions: the result shows at once if the diagnosis is current, else when it comes. */

@@ -3,6 +3,7 @@
  * apprentice the supervisor who authorised a live or isolated check and signed it off. Names
  * are recorded as stated; nothing here verifies them.
  */
+import * as z from 'zod';
 import type { CheckResult } from '../engine/diagnose.js';
 
 export const ROLES = ['fitter', 'apprentice', 'lead'] as const;
@@ -14,18 +15,19 @@ export interface WorkRules {
   apprenticesMayTestLive: boolean;
 }
 
-export interface WorkEntry {
-  check: string;
-  kind: 'started' | 'done';
-  at: string;
-  by: string;
-  authorisedBy?: string;
-  authorisation?: 'present' | 'remote';
-  signedOffBy?: string;
-  finding?: string;
+export const workEntrySchema = z.strictObject({
+  check: z.string(),
+  kind: z.enum(['started', 'done']),
+  at: z.string(),
+  by: z.string(),
+  authorisedBy: z.string().optional(),
+  authorisation: z.enum(['present', 'remote']).optional(),
+  signedOffBy: z.string().optional(),
+  finding: z.string().optional(),
   /** Recorded when the first isolated check starts: how the machine was made safe. */
-  isolation?: { points?: string; locks?: string; provedDeadBy?: string; tester?: string };
-}
+  isolation: z.strictObject({ points: z.string().optional(), locks: z.string().optional(), provedDeadBy: z.string().optional(), tester: z.string().optional() }).optional(),
+});
+export type WorkEntry = z.infer<typeof workEntrySchema>;
 
 /** An apprentice needs a supervisor for anything beyond looking. */
 export function needsSupervisor(rules: WorkRules, check: Pick<CheckResult, 'state'>): boolean {

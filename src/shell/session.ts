@@ -10,6 +10,7 @@ import * as z from 'zod';
 import { readValidated } from '../knowledge/read-json.js';
 import { failed, ok, type Result } from '../knowledge/result.js';
 import type { Flow } from '../dialogue/flow.js';
+import { workEntrySchema, type WorkEntry } from '../dialogue/work.js';
 import type { Answer } from '../dialogue/job.js';
 
 export const SESSION_FORMAT = 'dctriage-session/1';
@@ -32,6 +33,8 @@ export const sessionSchema = z.strictObject({
   rules: z.string(),
   machineFile: z.unknown().optional(),
   answers: z.array(answerSchema),
+  /** Checks started and done, with authorisations and sign-offs. */
+  work: z.array(workEntrySchema).optional(),
 });
 export type Session = z.infer<typeof sessionSchema>;
 
@@ -41,10 +44,10 @@ export function defaultSessionFile(env = process.env): string {
   return join(base, 'dctriage', 'session.json');
 }
 
-export function writeSession(file: string, s: { rules: string; machineFile?: unknown; answers: readonly Answer[] }): void {
+export function writeSession(file: string, s: { rules: string; machineFile?: unknown; answers: readonly Answer[]; work?: readonly WorkEntry[] }): void {
   mkdirSync(dirname(file), { recursive: true });
   const answers = s.answers.map(({ questionId, value, shown, at }) => ({ questionId, value, shown, at }));
-  replaceFile(file, JSON.stringify({ format: SESSION_FORMAT, savedAt: new Date().toISOString(), rules: s.rules, machineFile: s.machineFile, answers }, null, 2) + '\n', 0o600);
+  replaceFile(file, JSON.stringify({ format: SESSION_FORMAT, savedAt: new Date().toISOString(), rules: s.rules, machineFile: s.machineFile, answers, work: s.work ?? [] }, null, 2) + '\n', 0o600);
 }
 
 export function readSession(file: string): Result<Session> {

@@ -9,7 +9,7 @@ import type { RuleEngines } from '../engine/run-rules.js';
 import { diagnose, isolationSteps } from '../engine/diagnose.js';
 import { parseDraft } from '../dialogue/job.js';
 import { COMMANDS, currentStep, draftOf, initialState, outcomeStep, reduce, resultChecks, workPrompt, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
-import { statusOf } from '../dialogue/work.js';
+import { statusOf, type WorkEntry } from '../dialogue/work.js';
 import type { DialogueQuestion } from '../dialogue/questions.js';
 import type { CaseFile } from '../knowledge/case-schema.js';
 import type { Answer } from '../dialogue/job.js';
@@ -23,10 +23,12 @@ export interface DialogueProps {
   engine: RuleEngines;
   safetyNotice: string;
   initialAnswers?: Answer[];
-  /** Called after every change of answers: the shell saves the session. */
-  onAnswers?: (answers: Answer[]) => void;
-  /** Saves the job; returns the words to show (where it went, or why not). */
-  onSave?: (answers: Answer[]) => string;
+  /** Checks already worked, from a resumed session. */
+  initialWork?: WorkEntry[];
+  /** Called after every change of answers or of checks worked: the shell saves the session. */
+  onAnswers?: (answers: Answer[], work: WorkEntry[]) => void;
+  /** Saves the job, with the outcome recorded so far; returns the words to show (where it went, or why not). */
+  onSave?: (answers: Answer[], outcome: Answer[]) => string;
   /** Files the job with its recorded outcome as a case; returns the words to show. */
   onRecord?: (answers: Answer[], outcome: Answer[]) => string;
   /** Writes the job report; resolves to the words to show. */
@@ -45,11 +47,11 @@ interface Line {
 
 const now = () => new Date().toISOString();
 
-export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers, onSave, onRecord, onReport, onInterrupt, color = true, chart }: DialogueProps) {
+export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWork, onAnswers, onSave, onRecord, onReport, onInterrupt, color = true, chart }: DialogueProps) {
   const { exit } = useApp();
   const { stdout } = useStdout();
   const width = Math.max(40, stdout?.columns ?? 80);
-  const [state, dispatch] = useReducer((s: DialogueState, e: Parameters<typeof reduce>[1]) => reduce(s, e, ctx), initialAnswers, initialState);
+  const [state, dispatch] = useReducer((s: DialogueState, e: Parameters<typeof reduce>[1]) => reduce(s, e, ctx), undefined, () => initialState(initialAnswers, initialWork));
   const step = useMemo(() => currentStep(state, ctx), [state, ctx]);
   const typed = useLineInput(
     (line) => dispatch({ type: 'input', text: line, at: now() }),
@@ -59,7 +61,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
   // Save after every answer, and diagnose the answers as they now stand.
   const firstRender = useRef(true);
   useEffect(() => {
-    if (!firstRender.current || initialAnswers?.length) onAnswers?.(state.answers);
+    if (!firstRender.current || initialAnswers?.length) onAnswers?.(state.answers, state.work);
     firstRender.current = false;
     const parsed = parseDraft(draftOf(state, ctx));
     if (!parsed.ok) return;
@@ -72,8 +74,12 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, onAnswers,
   }, [state.version]);
 
   const diagnosis = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
+  const workCount = state.work.length;
   useEffect(() => {
-    if (state.saveRequested) dispatch({ type: 'saved', message: onSave ? onSave(state.answers) : 'saving is not available here' });
+    if (workCount > 0) onAnswers?.(state.answers, state.work);
+  }, [workCount]);
+  useEffect(() => {
+    if (state.saveRequested) dispatch({ type: 'saved', message: onSave ? onSave(state.answers, state.outcome) : 'saving is not available here' });
   }, [state.saveRequested]);
   useEffect(() => {
     if (state.recordRequested) dispatch({ type: 'saved', message: onRecord ? onRecord(state.answers, state.outcome) : 'recording is not available here' });
