@@ -107,7 +107,7 @@ async function main(argv: string[]): Promise<number> {
       if (opts.json) out(JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2));
       else {
         const chart = opts['no-chart'] ? undefined : chartText(modelInput(c.value), terminalWidth(), useColor());
-        out(formatExpectation(e) + (chart ? `\n\n${chart}` : ''));
+        out(formatExpectation(e, terminalWidth()) + (chart ? `\n\n${chart}` : ''));
       }
       return 0;
     }
@@ -129,7 +129,7 @@ async function main(argv: string[]): Promise<number> {
         }, null, 2));
       } else {
         if (opts.report === undefined && replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
-        out(formatDiagnosis(d, { chart: opts['no-chart'] ? undefined : chartText(modelInput(c.value), terminalWidth(), useColor()) }));
+        out(formatDiagnosis(d, { width: terminalWidth(), chart: opts['no-chart'] ? undefined : chartText(modelInput(c.value), terminalWidth(), useColor()) }));
       }
       if (opts.report !== undefined) {
         try {

@@ -22,7 +22,9 @@ export function whyAsked(q: DialogueQuestion, flow: Flow, d: Diagnosis | undefin
   const lines = leaders.map(([id]) => {
     const l = cq.likelihood.get(id) ?? [];
     const best = l.indexOf(Math.max(...l));
-    return `  ${title.get(id)}: most likely ${label(best)} (${Math.round((l[best] ?? 0) * 100)} %)`;
+    const spread = Math.max(...l) - Math.min(...l) < 0.05;
+    return spread ? `  ${title.get(id)}: no answer expected more than another` : `  ${title.get(id)}: expects ${label(best)} (${Math.round((l[best] ?? 0) * 100)} %)`;
   });
-  return [`This answer is worth about ${informationGain(cq, b).toFixed(2)} bits among the leading causes:`, ...lines].join('\n');
+  const bits = informationGain(cq, b);
+  return [`Asked because the answer tells the leading causes apart (${bits >= 0.3 ? 'strongly' : bits >= 0.1 ? 'fairly well' : 'a little'}; ${bits.toFixed(2)} bits):`, ...lines].join('\n');
 }

@@ -142,7 +142,11 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
     circuitR = raWarm + (seriesInCircuit ? rseWarm! : 0);
   } else if (np.armatureVoltage !== undefined && np.power !== undefined && inputCurrent !== undefined && ratedIa !== undefined && ratedIa > 0) {
     const losses = np.armatureVoltage * inputCurrent - np.power;
-    if (losses > 0) {
+    const efficiency = np.power / (np.armatureVoltage * inputCurrent);
+    // A motor converts 50–97 % of its input; outside that the plate reading is wrong (often kW typed as W).
+    if (efficiency < 0.5 || efficiency > 0.97) {
+      out.findings.push({ code: 'nameplate-power-implausible', says: `nameplate output ${fmt(np.power, 'W')} is ${Math.round(efficiency * 100)} % of the ${fmt(np.armatureVoltage * inputCurrent, 'W')} input that voltage and current mean: check the plate (kW typed as W?)` });
+    } else if (losses > 0) {
       circuitR = (0.5 * losses) / (ratedIa * ratedIa);
       circuitEstimated = true;
       const eta = np.power / (np.armatureVoltage * inputCurrent);

@@ -17,8 +17,8 @@ describe('dctriage expect', () => {
   it('prints expected against measured as a table', () => {
     const r = runCli(['expect', demo]);
     expect(r.code).toBe(0);
-    expect(r.stdout).toMatch(/^speed\s+\d+\s+2010\s+\d+ %\s+!\s+rpm/m);
-    expect(r.stdout).toContain('fieldCurrent');
+    expect(r.stdout).toMatch(/^speed\s+\d+ rpm\s+2010\s+\d+ %\s+!/m);
+    expect(r.stdout).toContain('field current');
     expect(r.stderr).toBe('');
   });
 
