@@ -1,7 +1,7 @@
 /**
  * Which model quantities a reading feeds, found by asking the model rather than by a list to
  * keep in step: a probe machine is given every reading but this one, then this one too, and the
- * quantities that appear or change are the ones it feeds.
+ * quantities that then measure it, or are derived from it, are the ones it feeds.
  */
 import { computeExpectations } from './expected.js';
 import type { MachineData, Readings } from './machine.js';
@@ -28,9 +28,14 @@ export function quantitiesFedBy(reading: string): QuantityName[] {
   const without = Object.fromEntries(Object.entries(all).filter(([k]) => k !== reading)) as Readings;
   const before = computeExpectations({ machine: PROBE_MACHINE, readings: without });
   const after = computeExpectations({ machine: PROBE_MACHINE, readings: all });
+  const probed = (all as Record<string, number>)[reading];
+  // Fed: a quantity that measures this very reading or takes it as its reference, or one derived from
+  // readings alone (no measured side). One whose expected value merely becomes computable (speed, once
+  // Ia is known) is not.
   return (Object.keys(after.quantities) as QuantityName[]).filter((k) => {
     const a = after.quantities[k]!;
     const b = before.quantities[k];
-    return !b || a.measured !== b.measured || a.value !== b.value;
+    const changed = !b || a.measured !== b.measured || a.value !== b.value;
+    return changed && (a.measured === null || a.measured === probed || a.value === probed);
   });
 }
