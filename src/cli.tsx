@@ -17,7 +17,7 @@ import { buildFlow } from './dialogue/flow.js';
 import { replayCase } from './dialogue/replay.js';
 import { readJson } from './knowledge/read-json.js';
 import { caseSchema, machineSchema, type CaseInput } from './knowledge/case-schema.js';
-import { validate } from './knowledge/read-json.js';
+import { readValidated, validate } from './knowledge/read-json.js';
 import { ok, type Result } from './knowledge/result.js';
 import { jobFromAnswers, type Answer } from './dialogue/job.js';
 import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Session } from './shell/session.js';
@@ -48,6 +48,8 @@ import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
 import { USAGE } from './shell/help.js';
+import { safetyFile } from './knowledge/rulebase-schema.js';
+import type { Prepared } from './ui/run-dialogue.js';
 import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
 import { resolveKnowledge } from './shell/settings.js';
 
@@ -259,29 +261,41 @@ async function dialogue(resume: boolean, opts: { rules?: string | undefined; cas
   if (!settings.ok) return fail(settings.issues);
   const role = opts.role ?? settings.value.role ?? 'fitter';
   if (!(ROLES as readonly string[]).includes(role)) throw new UsageError(`--role takes ${ROLES.join(', ')}, not "${role}"`);
-  const base = loadRuleBase(rulesDir);
-  if (!base.ok) return fail(base.issues);
-  const flow = buildFlow(base.value);
-  let initialAnswers: Answer[] = [];
-  if (saved) {
-    const a = sessionAnswers(sessionFile, saved, flow);
-    if (!a.ok) return fail(a.issues);
-    initialAnswers = a.value;
-  }
+  // The notice is all the first frame needs; the rest of the rule base loads behind it.
+  const safety = readValidated(join(rulesDir, 'safety.json'), safetyFile);
+  if (!safety.ok) return fail(safety.issues);
+  const color = !process.env.NO_COLOR;
+  const prepare = (): Prepared => {
+    const base = loadRuleBase(rulesDir);
+    if (!base.ok) return { ok: false, message: formatIssues(base.issues) };
+    const flow = buildFlow(base.value);
+    let initialAnswers: Answer[] = [];
+    if (saved) {
+      const a = sessionAnswers(sessionFile, saved, flow);
+      if (!a.ok) return { ok: false, message: formatIssues(a.issues) };
+      initialAnswers = a.value;
+    }
+    return {
+      ok: true,
+      props: {
+        ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true } },
+        engine: buildEngine(base.value),
+        safetyNotice: base.value.safety.notice,
+        initialAnswers,
+        initialWork: saved?.work ?? [],
+        color,
+        chart: (job) => chartText({ machine: job.machine, readings: job.readings }, process.stdout.columns ?? 80, color),
+        onAnswers: (answers, work) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work }),
+        onSave: (answers, outcome) => saveJob({ ...jobFromAnswers(answers, machineFile), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
+        onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role),
+        onRecord: (answers, outcome) => recordJob({ ...jobFromAnswers(answers, machineFile), outcome: outcomeOf(outcome, today()) }, base.value, opts),
+      },
+    };
+  };
   const { runDialogue } = await import('./ui/run-dialogue.js');
-  return runDialogue({
-    ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true } },
-    engine: buildEngine(base.value),
-    safetyNotice: base.value.safety.notice,
-    initialAnswers,
-    initialWork: saved?.work ?? [],
-    color: !process.env.NO_COLOR,
-    chart: (job) => chartText({ machine: job.machine, readings: job.readings }, process.stdout.columns ?? 80, !process.env.NO_COLOR),
-    onAnswers: (answers, work) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work }),
-    onSave: (answers, outcome) => saveJob({ ...jobFromAnswers(answers, machineFile), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
-    onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role),
-    onRecord: (answers, outcome) => recordJob({ ...jobFromAnswers(answers, machineFile), outcome: outcomeOf(outcome, today()) }, base.value, opts),
-  });
+  const ended = await runDialogue({ notice: safety.value.notice, color, prepare });
+  if (ended.message) process.stderr.write(ended.message + '\n');
+  return ended.code;
 }
 
 /** Writes the job beside the fitter as a dc-case/1 file that never replaces another. */
