@@ -3,7 +3,7 @@
  * a draft. Each returns what to print and the exit code; the CLI prints.
  */
 import { mkdirSync, readdirSync, unlinkSync } from 'node:fs';
-import { basename, join } from 'node:path';
+import { basename, isAbsolute, join, relative } from 'node:path';
 import { caseSchema, type CaseFile } from '../knowledge/case-schema.js';
 import { stableJson } from '../knowledge/canonical.js';
 import { loadCase } from '../knowledge/load-case.js';
@@ -27,6 +27,11 @@ export interface Outcome {
 }
 
 const bad = (issues: Issue[]): Outcome => ({ code: 2, err: formatIssues(issues) });
+/** A path as the lead would type it: relative when it is under the working folder. */
+const shown = (file: string) => {
+  const r = relative(process.cwd(), file);
+  return r && !r.startsWith('..') && !isAbsolute(r) ? r : file;
+};
 const json = (v: unknown) => JSON.stringify(v, null, 2);
 
 export function caseFiles(dir: string): string[] {
@@ -41,7 +46,7 @@ export function addCase(file: string, casesDir: string, base: RuleBase, today: s
   const filed = fileCase(raw.value as Record<string, unknown>, c.value, casesDir, today);
   if (!filed.ok) return bad(filed.issues);
   const note = filed.value.requestedId ? ` (id "${filed.value.requestedId}" was taken: filed as "${filed.value.id}")` : '';
-  return { code: 0, out: `Filed ${filed.value.file}${note}` };
+  return { code: 0, out: `Filed ${shown(filed.value.file)}${note}` };
 }
 
 /** A lead's review of a saved job: its report on stdout, and with `closeBy` the job marked closed. */
@@ -118,7 +123,7 @@ export async function draftRule(caseFile: string, rulesDir: string, casesDir: st
   if (asJson) return { code: 0, out: json({ file: written, draft: draft.file, conditions: draft.conditions, rankChanges: changes, flagged: dropped.map((c) => c.id) }) };
   const moved = changes.filter((c) => c.before !== c.after);
   const lines = [
-    `Wrote ${written}: rule "${draft.name}" for ${draft.cause}, ${draft.conditions} condition${draft.conditions === 1 ? '' : 's'}, weight ${draft.file.rules[0]!.kind === 'evidence' ? draft.file.rules[0]!.weight : ''}.`,
+    `Wrote ${shown(written)}: rule "${draft.name}" for ${draft.cause}, ${draft.conditions} condition${draft.conditions === 1 ? '' : 's'}, weight ${draft.file.rules[0]!.kind === 'evidence' ? draft.file.rules[0]!.weight : ''}.`,
     moved.length ? 'Rank changes if adopted (confirmed cause, before → after):' : 'No recorded case changes rank if adopted.',
     ...moved.map((c) => `  ${c.droppedOut ? 'FLAG ' : '     '}${c.id} (${c.expected}): ${c.before || 'absent'} → ${c.after || 'absent'}`),
   ];
