@@ -3,6 +3,7 @@
  * symptoms, a quantity through the unit adapter, free text. Never throws: a value or a reason.
  */
 import { describeQuantityError, DIMENSIONS, normalizeQuantityText, parseQuantity } from '../units/quantity.js';
+import { quote } from '../units/quote.js';
 import type { DialogueQuestion } from './questions.js';
 
 export type AnswerValue = { kind: 'unknown' } | { kind: 'one'; value: string } | { kind: 'many'; values: string[] } | { kind: 'text'; value: string };
@@ -35,14 +36,14 @@ export function parseAnswer(q: DialogueQuestion, typed: string): ParsedAnswer {
     }
     case 'choice': {
       const pick = pickOption(a.options, text);
-      if (!pick) return { ok: false, reason: `"${text}" is not one of the choices: give its number (1–${a.options.length}) or its word` };
+      if (!pick) return { ok: false, reason: `${quote(text)} is not one of the choices${suggestion(a.options, text)}: give its number (1–${a.options.length}) or its word` };
       return { ok: true, value: { kind: 'one', value: pick.value }, shown: pick.label };
     }
     case 'many': {
       const parts = text.split(/[\s,;]+/).filter(Boolean);
       const picks = parts.map((p) => ({ p, o: pickOption(a.options, p) }));
       const bad = picks.find((x) => !x.o);
-      if (bad) return { ok: false, reason: `"${bad.p}" is not one of the choices: give numbers (1–${a.options.length}) separated by spaces` };
+      if (bad) return { ok: false, reason: `${quote(bad.p)} is not one of the choices${suggestion(a.options, bad.p)}: give numbers (1–${a.options.length}) separated by spaces` };
       const values = [...new Set(picks.map((x) => x.o!.value))];
       return { ok: true, value: { kind: 'many', values }, shown: values.map((v) => a.options.find((o) => o.value === v)!.label).join(', ') };
     }
@@ -59,6 +60,29 @@ function pickOption(options: { value: string; label: string }[], text: string) {
     // So is a unique word of a label: "blower" for "separate blower".
     (t.length >= 3 ? unique(options.filter((o) => o.label.toLowerCase().split(/[\s(),/]+/).some((w) => w.startsWith(t)))) : undefined)
   );
+}
+
+/** Edit distance, for "did you mean": a typed word is short, so the plain table is enough. */
+function distance(a: string, b: string): number {
+  let prev = Array.from({ length: b.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= a.length; i++) {
+    const row = [i];
+    for (let j = 1; j <= b.length; j++) row[j] = Math.min(prev[j]! + 1, row[j - 1]! + 1, prev[j - 1]! + (a[i - 1] === b[j - 1] ? 0 : 1));
+    prev = row;
+  }
+  return prev[b.length]!;
+}
+
+/** ' (did you mean "shunt"?)' when one choice is a slip of the keyboard away, or the choices a word fits. */
+function suggestion(options: { value: string; label: string }[], text: string): string {
+  const t = text.toLowerCase();
+  if (t.length < 3 || t.length > 40) return '';
+  const words = (o: { value: string; label: string }) => [o.value, ...o.label.toLowerCase().split(/[\s(),/]+/)].filter((w) => w.length >= 3);
+  const near = options.filter((o) => words(o).some((w) => distance(t, w) <= (t.length <= 4 ? 1 : 2)));
+  const containing = options.filter((o) => o.label.toLowerCase().includes(t));
+  const fits = near.length ? near : containing;
+  if (fits.length === 0 || fits.length > 3) return '';
+  return ` (did you mean ${fits.map((o) => quote(o.label)).join(' or ')}?)`;
 }
 
 function unique<T>(xs: T[]): T | undefined {
