@@ -29,6 +29,8 @@ const withUnit = (x: number, u: string) => `${n(x)}${UNIT[u] === '' ? '' : ` ${U
 /** Text people typed: no HTML gets through to the HTML report, no table breaks. */
 const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
 const cell = (s: string) => esc(s).replace(/\|/g, '\\|').replace(/\n/g, ' ');
+/** An ISO time as people read it on paper: "2026-12-01 21:09 UTC"; other text as it was given. */
+const when = (iso: string) => (/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/.test(iso) && iso.endsWith('Z') ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : iso);
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'live test (qualified person)', isolated: 'isolated (after isolation and lockout)' } as const;
 
 export function jobReport(r: ReportInput): string {
@@ -55,8 +57,8 @@ export function jobReport(r: ReportInput): string {
   row('Locks', isolation?.locks?.join(', '));
   row('Proved dead by', isolation?.provedDeadBy);
   row('Tester', isolation?.tester);
-  row('Closed by', j.closedBy && `${j.closedBy}${j.closedAt ? ` at ${j.closedAt}` : ''}`);
-  row('Report written', r.generatedAt);
+  row('Closed by', j.closedBy && `${j.closedBy}${j.closedAt ? ` at ${when(j.closedAt)}` : ''}`);
+  row('Report written', when(r.generatedAt));
   lines.push('');
 
   if (d.warnings.length) {
@@ -123,8 +125,8 @@ export function jobReport(r: ReportInput): string {
     lines.push(`   - How: ${c.how} Instrument: ${c.instrument}.`);
     const hazards = c.hazards.map((h) => r.safety.hazards.find((x) => x.id === h)?.says).filter(Boolean);
     if (hazards.length) lines.push(`   - Hazards: ${hazards.join(' ')}`);
-    if (started) lines.push(`   - Started ${started.at} by ${esc(started.by)}${started.authorisedBy ? `, authorised by ${esc(started.authorisedBy)} (${started.authorisation})` : ''}.`);
-    if (done) lines.push(`   - Done ${done.at} by ${esc(done.by)}${done.signedOffBy ? `, signed off by ${esc(done.signedOffBy)}` : ''}${done.finding ? `. Found: ${esc(done.finding)}` : ''}.`);
+    if (started) lines.push(`   - Started ${when(started.at)} by ${esc(started.by)}${started.authorisedBy ? `, authorised by ${esc(started.authorisedBy)} (${started.authorisation})` : ''}.`);
+    if (done) lines.push(`   - Done ${when(done.at)} by ${esc(done.by)}${done.signedOffBy ? `, signed off by ${esc(done.signedOffBy)}` : ''}${done.finding ? `. Found: ${esc(done.finding)}` : ''}.`);
     if (!started && !done) lines.push('   - Not done.');
   });
   if (!d.checks.length) lines.push('No checks: no cause stood out.');
