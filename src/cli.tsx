@@ -7,7 +7,7 @@ import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { computeExpectations } from './model/expected.js';
-import { loadCase, modelInput } from './knowledge/load-case.js';
+import { loadCaseFile, modelInput } from './knowledge/load-case.js';
 import { loadRuleBase, type RuleBase } from './knowledge/load-rules.js';
 import { formatIssues, type Issue } from './knowledge/result.js';
 import { diagnose } from './engine/diagnose.js';
@@ -16,7 +16,7 @@ import { checkCases, type CaseRunner } from './engine/check-cases.js';
 import { buildFlow } from './dialogue/flow.js';
 import { replayCase } from './dialogue/replay.js';
 import { readJson } from './knowledge/read-json.js';
-import { caseSchema, machineSchema, type CaseInput } from './knowledge/case-schema.js';
+import { caseSchema, machineSchema } from './knowledge/case-schema.js';
 import { readValidated, validate } from './knowledge/read-json.js';
 import { ok, type Result } from './knowledge/result.js';
 import { jobFromAnswers, type Answer } from './dialogue/job.js';
@@ -102,24 +102,24 @@ async function main(argv: string[]): Promise<number> {
   const [command, ...rest] = positionals;
   switch (command) {
     case 'expect': {
-      const job = loadJob(rest[0], 'expect', opts);
-      if (!job.ok) return fail(job.issues);
-      const { c } = job.value;
-      const e = computeExpectations(modelInput(c.value));
+      const loaded = loadJob(rest[0], 'expect', opts);
+      if (!loaded.ok) return fail(loaded.issues);
+      const { job } = loaded.value;
+      const e = computeExpectations(modelInput(job));
       if (opts.json) out(JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2));
       else {
-        const chart = opts['no-chart'] ? undefined : chartText(modelInput(c.value), terminalWidth(), useColor());
+        const chart = opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor());
         out(formatExpectation(e, terminalWidth()) + (chart ? `\n\n${chart}` : ''));
       }
       return 0;
     }
     case 'diagnose': {
-      const job = loadJob(rest[0], 'diagnose', opts);
-      if (!job.ok) return fail(job.issues);
-      const { file, base, c } = job.value;
-      const engine = buildEngine(base.value);
-      const replay = opts.adaptive ? await replayCase(rawCase(file), buildFlow(base.value), engine) : undefined;
-      const d = replay?.diagnosis ?? (await diagnose(c.value, base.value, engine));
+      const loaded = loadJob(rest[0], 'diagnose', opts);
+      if (!loaded.ok) return fail(loaded.issues);
+      const { base, job, raw } = loaded.value;
+      const engine = buildEngine(base);
+      const replay = opts.adaptive ? await replayCase(raw, buildFlow(base), engine) : undefined;
+      const d = replay?.diagnosis ?? (await diagnose(job, base, engine));
       if (opts.json) {
         out(JSON.stringify({
           ...(replay ? { questionsAsked: replay.questionsAsked } : {}),
@@ -130,12 +130,12 @@ async function main(argv: string[]): Promise<number> {
           quantities: d.expectation.quantities,
         }, null, 2));
       } else {
-        if (opts.report === undefined && replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
-        out(formatDiagnosis(d, { width: terminalWidth(), chart: opts['no-chart'] ? undefined : chartText(modelInput(c.value), terminalWidth(), useColor()) }));
+        if (replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
+        out(formatDiagnosis(d, { width: terminalWidth(), chart: opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor()) }));
       }
       if (opts.report !== undefined) {
         try {
-          const where = await writeReport(opts.report, { job: c.value, raw: rawCase(file) as Record<string, unknown>, diagnosis: d, safety: base.value.safety, generatedAt: new Date().toISOString() }, process.cwd());
+          const where = await writeReport(opts.report, { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString() }, process.cwd());
           process.stderr.write(`Job report written to ${where}\n`);
         } catch (e) {
           return fail([{ code: 'unreadable', file: opts.report, path: '', message: `could not write the report: ${(e as Error).message}` }]);
@@ -202,8 +202,8 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
   if (opts.adaptive) {
     const flow = buildFlow(base.value);
     const engine = buildEngine(base.value);
-    runner = async (_c, file) => {
-      const r = await replayCase(rawCase(file), flow, engine);
+    runner = async (_c, raw) => {
+      const r = await replayCase(raw, flow, engine);
       return { ranked: r.diagnosis.causes.map((x) => x.id), questionsAsked: r.questionsAsked };
     };
   }
@@ -220,9 +220,9 @@ function loadJob(file: string | undefined, command: string, opts: { rules?: stri
   if (!k.ok) return k;
   const base = loadRuleBase(k.value.rules);
   if (!base.ok) return base;
-  const c = loadCase(file, causeIdsOf(base.value));
-  if (!c.ok) return c;
-  return ok({ file, base, c });
+  const loaded = loadCaseFile(file, causeIdsOf(base.value));
+  if (!loaded.ok) return loaded;
+  return ok({ base: base.value, job: loaded.value.job, raw: loaded.value.raw });
 }
 
 /** Where the rules and cases are; reading commands fall back to the built-in folders. */
@@ -340,12 +340,6 @@ function recordJob(draft: Record<string, unknown>, base: RuleBase, opts: { rules
   return filed.ok ? `Recorded the job as ${filed.value.file}` : `Not recorded: ${formatIssues(filed.issues)}. The session is kept; type save to keep the job here instead.`;
 }
 
-/** The case file as written; called only after loadCase has validated the same file. */
-function rawCase(file: string): CaseInput {
-  const r = readJson(file);
-  if (!r.ok) throw new Error(`${file} could not be read again`);
-  return r.value as CaseInput;
-}
 
 function causeIdsOf(base: RuleBase): Set<string> {
   return new Set(base.causes.map((c) => c.id));

@@ -1,6 +1,6 @@
 /** Runs every recorded case whose outcome names a cause and reports where that cause ranked. */
-import type { CaseFile } from '../knowledge/case-schema.js';
-import { loadCase } from '../knowledge/load-case.js';
+import type { CaseFile, CaseInput } from '../knowledge/case-schema.js';
+import { loadCaseFile } from '../knowledge/load-case.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import { failed, ok, type Issue, type Result } from '../knowledge/result.js';
 import { diagnose } from './diagnose.js';
@@ -18,7 +18,7 @@ export interface CaseRank {
 }
 
 /** How a case is put to the engine: whole, or through the dialogue's questions. */
-export type CaseRunner = (c: CaseFile, file: string) => Promise<{ ranked: string[]; questionsAsked?: string[] }>;
+export type CaseRunner = (c: CaseFile, raw: CaseInput) => Promise<{ ranked: string[]; questionsAsked?: string[] }>;
 
 export interface CaseCheckReport {
   total: number;
@@ -34,15 +34,16 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
   const issues: Issue[] = [];
   const cases: CaseRank[] = [];
   for (const file of files) {
-    const c = loadCase(file, causeIds);
+    const c = loadCaseFile(file, causeIds);
     if (!c.ok) {
       issues.push(...c.issues);
       continue;
     }
-    const expected = c.value.outcome?.cause;
+    const { job, raw } = c.value;
+    const expected = job.outcome?.cause;
     if (expected === undefined) continue;
-    const { ranked, questionsAsked } = await run(c.value, file);
-    cases.push({ id: c.value.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}) });
+    const { ranked, questionsAsked } = await run(job, raw);
+    cases.push({ id: job.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}) });
   }
   if (issues.length) return failed(...issues);
   return ok({

@@ -1,14 +1,23 @@
 /** Loads a dc-case/1 file and hands the model the plain-number view of it. */
 import type { ModelInput } from '../model/expected.js';
-import { caseSchema, type CaseFile } from './case-schema.js';
-import { readValidated } from './read-json.js';
-import { failed, type Result } from './result.js';
+import { caseSchema, type CaseFile, type CaseInput } from './case-schema.js';
+import { readJson, validate } from './read-json.js';
+import { failed, ok, type Result } from './result.js';
 
-export function loadCase(file: string, causeIds?: ReadonlySet<string>): Result<CaseFile> {
-  const parsed = readValidated(file, caseSchema);
-  if (!parsed.ok || causeIds === undefined) return parsed;
+export interface LoadedCase {
+  job: CaseFile;
+  /** The file as written, quantities as typed: what reports and replays repeat. */
+  raw: CaseInput;
+}
+
+/** Reads a case file once, validating it; `causeIds` is the catalogue its recorded cause must belong to. */
+export function loadCaseFile(file: string, causeIds?: ReadonlySet<string>): Result<LoadedCase> {
+  const raw = readJson(file);
+  if (!raw.ok) return raw;
+  const parsed = validate(file, raw.value, caseSchema);
+  if (!parsed.ok) return parsed;
   const cause = parsed.value.outcome?.cause;
-  if (cause !== undefined && !causeIds.has(cause)) {
+  if (causeIds !== undefined && cause !== undefined && !causeIds.has(cause)) {
     return failed({
       code: 'unknown-cause',
       file,
@@ -16,7 +25,13 @@ export function loadCase(file: string, causeIds?: ReadonlySet<string>): Result<C
       message: `"${cause}" is not a cause of the catalogue in use; record a cause not yet in the catalogue as outcome.newCause`,
     });
   }
-  return parsed;
+  // The schema accepted this very value, so it has the input shape.
+  return ok({ job: parsed.value, raw: raw.value as CaseInput });
+}
+
+export function loadCase(file: string, causeIds?: ReadonlySet<string>): Result<CaseFile> {
+  const c = loadCaseFile(file, causeIds);
+  return c.ok ? ok(c.value.job) : c;
 }
 
 export function modelInput(c: CaseFile): ModelInput {

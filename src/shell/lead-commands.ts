@@ -6,9 +6,9 @@ import { mkdirSync, readdirSync, unlinkSync } from 'node:fs';
 import { basename, isAbsolute, join, relative } from 'node:path';
 import { caseSchema, type CaseFile } from '../knowledge/case-schema.js';
 import { stableJson } from '../knowledge/canonical.js';
-import { loadCase } from '../knowledge/load-case.js';
+import { loadCase, loadCaseFile } from '../knowledge/load-case.js';
 import { crossCheck, loadRuleBase, type RuleBase } from '../knowledge/load-rules.js';
-import { readJson, readValidated } from '../knowledge/read-json.js';
+import { readValidated } from '../knowledge/read-json.js';
 import { formatIssues, type Issue } from '../knowledge/result.js';
 import { causesFile, checksFile, draftFile, ruleFile } from '../knowledge/rulebase-schema.js';
 import { checkCases, type CaseCheckReport } from '../engine/check-cases.js';
@@ -39,11 +39,9 @@ export function caseFiles(dir: string): string[] {
 }
 
 export function addCase(file: string, casesDir: string, base: RuleBase, today: string): Outcome {
-  const c = loadCase(file, new Set(base.causes.map((x) => x.id)));
+  const c = loadCaseFile(file, new Set(base.causes.map((x) => x.id)));
   if (!c.ok) return bad(c.issues);
-  const raw = readJson(file);
-  if (!raw.ok) return bad(raw.issues);
-  const filed = fileCase(raw.value as Record<string, unknown>, c.value, casesDir, today);
+  const filed = fileCase(c.value.raw, c.value.job, casesDir, today);
   if (!filed.ok) return bad(filed.issues);
   const note = filed.value.requestedId ? ` (id "${filed.value.requestedId}" was taken: filed as "${filed.value.id}")` : '';
   return { code: 0, out: `Filed ${shown(filed.value.file)}${note}` };
@@ -51,18 +49,15 @@ export function addCase(file: string, casesDir: string, base: RuleBase, today: s
 
 /** A lead's review of a saved job: its report on stdout, and with `closeBy` the job marked closed. */
 export async function reviewJob(file: string, base: RuleBase, closeBy: string | undefined, now: string): Promise<Outcome> {
-  const c = loadCase(file, new Set(base.causes.map((x) => x.id)));
+  const c = loadCaseFile(file, new Set(base.causes.map((x) => x.id)));
   if (!c.ok) return bad(c.issues);
-  const raw = readJson(file);
-  if (!raw.ok) return bad(raw.issues);
-  const d = await diagnose(c.value, base, buildEngine(base));
-  const text = jobReport({ job: c.value, raw: raw.value as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: now });
+  const { job: parsed, raw } = c.value;
+  const d = await diagnose(parsed, base, buildEngine(base));
+  const text = jobReport({ job: parsed, raw, diagnosis: d, safety: base.safety, generatedAt: now });
   if (closeBy === undefined) return { code: 0, out: text };
   if (closeBy.trim() === '') return bad([{ code: 'invalid', file, path: 'job.closedBy', message: 'name who closes the job: --close NAME' }]);
-  const data = raw.value as Record<string, unknown>;
-  const job = { ...(data.job as Record<string, unknown> | undefined), closedBy: closeBy, closedAt: now };
   try {
-    replaceFile(file, stableJson({ ...data, job }, caseSchema));
+    replaceFile(file, stableJson({ ...raw, job: { ...raw.job, closedBy: closeBy, closedAt: now } }, caseSchema));
   } catch (e) {
     return bad([{ code: 'unreadable', file, path: '', message: `could not mark the job closed: ${(e as Error).message}` }]);
   }
