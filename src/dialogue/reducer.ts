@@ -35,20 +35,16 @@ export interface DialogueState {
   error?: string | undefined;
   /** Why the questions ended. */
   endedBecause?: string | undefined;
-  /** The fitter asked to save the job; the shell writes it and answers with `saved`. */
-  saveRequested?: boolean | undefined;
+  /** A file the fitter asked for (the job, the recorded case, the report): the shell writes it and answers with `saved`. */
+  request?: 'save' | 'record' | 'report' | undefined;
   /** What the last save said: where the file went, or why it could not be written. */
   saved?: string | undefined;
   /** The outcome being recorded, once the fitter asked to record the job. */
   outcome: Answer[];
-  /** The outcome is complete: the shell files the case and answers with `saved`. */
-  recordRequested?: boolean | undefined;
   /** Checks started and done, with their authorisations and sign-offs. */
   work: WorkEntry[];
   /** A check being started or finished: the prompts answered so far. */
   pendingWork?: { kind: WorkEntry['kind']; check: CheckResult; got: Partial<Record<WorkPrompt['id'], string>>; firstIsolated: boolean } | undefined;
-  /** The fitter asked for the job report; the shell writes it and answers with `saved`. */
-  reportRequested?: boolean | undefined;
   /** Said once with the next note. */
   notice?: string | undefined;
 }
@@ -126,7 +122,7 @@ export function reduce(state: DialogueState, event: DialogueEvent, ctx: Dialogue
     case 'input':
       return onInput(state, event.text, event.at, ctx);
     case 'saved':
-      return { ...state, saveRequested: false, recordRequested: false, reportRequested: false, saved: event.message };
+      return { ...state, request: undefined, saved: event.message };
   }
 }
 
@@ -150,9 +146,9 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   if (state.pendingWork) return onWorkPrompt(base, text, word, at, ctx);
   const work = /^(start|done) +(\d+)$/.exec(word);
   if (work) return state.phase === 'result' ? beginWork(base, work[1] === 'start' ? 'started' : 'done', Number(work[2]), at, ctx) : { ...base, error: 'checks come with the result: type done to finish the questions first' };
-  if (word === 'report') return state.phase === 'result' ? { ...base, reportRequested: true } : { ...base, error: 'the report comes with the result: type done to finish first' };
+  if (word === 'report') return state.phase === 'result' ? { ...base, request: 'report' } : { ...base, error: 'the report comes with the result: type done to finish first' };
   if (word === 'record') return state.phase === 'result' ? { ...base, phase: 'recording', outcome: [] } : { ...base, error: 'record comes with the result: type done to finish first' };
-  if (word === 'save') return state.phase === 'result' ? { ...base, saveRequested: true } : { ...base, error: 'save comes with the result: type done to finish first' };
+  if (word === 'save') return state.phase === 'result' ? { ...base, request: 'save' } : { ...base, error: 'save comes with the result: type done to finish first' };
   if (word === 'done') return state.phase === 'asking' ? finish(base, 'you asked for the result') : base;
   if (state.phase === 'finishing') return { ...base, error: 'the result is on its way: a moment' };
   if (state.phase === 'result') return { ...base, error: 'the questions are finished: type save, back to change the last answer, or press Ctrl-C to leave' };
@@ -237,7 +233,7 @@ function onOutcomeInput(state: DialogueState, text: string, word: string, at: st
   if (!parsed.ok) return { ...state, error: parsed.reason };
   const outcome = [...state.outcome, { questionId: question.id, target: question.target, value: parsed.value, shown: parsed.shown, at }];
   const next = { ...state, outcome };
-  return outcomeStep(next, ctx) ? next : { ...next, phase: 'result', recordRequested: true };
+  return outcomeStep(next, ctx) ? next : { ...next, phase: 'result', request: 'record' };
 }
 
 export function outcomeStep(state: DialogueState, ctx: DialogueContext) {

@@ -78,17 +78,16 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
   useEffect(() => {
     if (workCount > 0) onAnswers?.(state.answers, state.work);
   }, [workCount]);
+  // The shell writes what was asked for; its words come back as `saved`.
   useEffect(() => {
-    if (state.saveRequested) dispatch({ type: 'saved', message: onSave ? onSave(state.answers, state.outcome) : 'saving is not available here' });
-  }, [state.saveRequested]);
-  useEffect(() => {
-    if (state.recordRequested) dispatch({ type: 'saved', message: onRecord ? onRecord(state.answers, state.outcome) : 'recording is not available here' });
-  }, [state.recordRequested]);
-  useEffect(() => {
-    if (!state.reportRequested) return;
-    if (!onReport) dispatch({ type: 'saved', message: 'reports are not available here' });
-    else void onReport(state).then((message) => dispatch({ type: 'saved', message }));
-  }, [state.reportRequested]);
+    const r = state.request;
+    if (!r) return;
+    const handler = r === 'save' ? onSave : r === 'record' ? onRecord : undefined;
+    if (r === 'report') {
+      if (onReport) void onReport(state).then((message) => dispatch({ type: 'saved', message }));
+      else dispatch({ type: 'saved', message: 'reports are not available here' });
+    } else dispatch({ type: 'saved', message: handler ? handler(state.answers, state.outcome) : `${r} is not available here` });
+  }, [state.request]);
   const recording = state.phase === 'recording' ? outcomeStep(state, ctx) : undefined;
   const working = workPrompt(state, ctx);
 
