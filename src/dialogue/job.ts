@@ -21,39 +21,26 @@ type Draft = Omit<CaseInput, 'machine'> & { machine: Record<string, unknown> & {
 
 /** The case file the answers make, the machine from a file underneath them. */
 export function jobFromAnswers(answers: readonly Answer[], machineFile?: unknown): Draft {
-  const draft: Draft = { format: CASE_FORMAT, machine: { ...(machineFile as Record<string, unknown> | undefined) } };
-  const set = (obj: Record<string, unknown>, key: string, v: AnswerValue) => {
-    if (v.kind === 'unknown') delete obj[key];
-    else obj[key] = v.kind === 'many' ? v.values : v.value;
+  const file = machineFile as (Record<string, unknown> & { nameplate?: Record<string, unknown> }) | undefined;
+  // Fresh objects all the way down: the machine file is never written into.
+  const draft: Draft = { format: CASE_FORMAT, machine: { ...file, ...(file?.nameplate ? { nameplate: { ...file.nameplate } } : {}) } };
+  const record = draft as unknown as Record<string, Record<string, unknown> | undefined>;
+  const into = (t: Target): Record<string, unknown> | undefined => {
+    if (t.section === 'machine') return draft.machine;
+    if (t.section === 'nameplate') return (draft.machine.nameplate ??= {});
+    if (t.section === 'job' || t.section === 'observations' || t.section === 'readings') return (record[t.section] ??= {});
+    return undefined; // symptoms are a list; the outcome is recorded separately (outcome.ts)
   };
   for (const a of answers) {
     const t = a.target;
-    switch (t.section) {
-      case 'machine':
-        set(draft.machine, t.name, a.value);
-        break;
-      case 'nameplate':
-        draft.machine.nameplate = { ...draft.machine.nameplate };
-        set(draft.machine.nameplate, t.name, a.value);
-        break;
-      case 'job':
-        draft.job = { ...draft.job };
-        set(draft.job as Record<string, unknown>, t.name, a.value);
-        break;
-      case 'symptoms':
-        draft.symptoms = a.value.kind === 'many' ? (a.value.values as CaseInput['symptoms']) : [];
-        break;
-      case 'observations':
-        draft.observations = { ...draft.observations };
-        set(draft.observations as Record<string, unknown>, t.name, a.value);
-        break;
-      case 'readings':
-        draft.readings = { ...draft.readings };
-        set(draft.readings as Record<string, unknown>, t.name, a.value);
-        break;
-      case 'outcome':
-        break; // recorded separately, see outcome.ts
+    if (t.section === 'symptoms') {
+      draft.symptoms = a.value.kind === 'many' ? (a.value.values as CaseInput['symptoms']) : [];
+      continue;
     }
+    const obj = into(t);
+    if (!obj || !('name' in t)) continue;
+    if (a.value.kind === 'unknown') delete obj[t.name];
+    else obj[t.name] = a.value.kind === 'many' ? a.value.values : a.value.value;
   }
   return draft;
 }
