@@ -5,7 +5,7 @@
  */
 import { join } from 'node:path';
 import type { RuleBase } from '../knowledge/load-rules.js';
-import { factsRead } from '../knowledge/load-rules.js';
+import { factsRead, leavesOf } from '../knowledge/load-rules.js';
 import type { Condition, Leaf } from '../knowledge/rulebase-schema.js';
 import { quantitiesFedBy } from '../model/feeds.js';
 
@@ -91,12 +91,4 @@ export function reviewRuleBase(base: RuleBase): RuleFinding[] {
     if (!used) findings.push({ kind: 'unused-question', file: questionsFile, about: `questions[${k}] (${q.id})`, message: `no rule uses the answer to question "${q.id}"` });
   });
   return findings;
-}
-
-function leavesOf(c: Condition, shared: Record<string, Condition>, seen = new Set<string>()): Leaf[] {
-  if ('all' in c) return c.all.flatMap((x) => leavesOf(x, shared, seen));
-  if ('any' in c) return c.any.flatMap((x) => leavesOf(x, shared, seen));
-  if ('not' in c) return leavesOf(c.not, shared, seen);
-  if ('condition' in c) return shared[c.condition] && !seen.has(c.condition) ? leavesOf(shared[c.condition]!, shared, new Set([...seen, c.condition])) : [];
-  return [c];
 }

@@ -21,6 +21,7 @@ import {
   type Cause,
   type Check,
   type Condition,
+  type Leaf,
   type Question,
   type Rule,
   type Safety,
@@ -183,18 +184,21 @@ function factKind(fact: string, derived: Set<string>): 'observation' | 'derived'
   return undefined;
 }
 
-/** Facts a condition reads, shared conditions expanded. */
-export function factsRead(c: Condition, shared: Record<string, Condition>, seen = new Set<string>()): string[] {
-  if ('all' in c) return c.all.flatMap((x) => factsRead(x, shared, seen));
-  if ('any' in c) return c.any.flatMap((x) => factsRead(x, shared, seen));
-  if ('not' in c) return factsRead(c.not, shared, seen);
+/** Every leaf of a condition, shared conditions expanded (each once), under any all/any/not. */
+export function leavesOf(c: Condition, shared: Record<string, Condition>, seen = new Set<string>()): Leaf[] {
+  if ('all' in c) return c.all.flatMap((x) => leavesOf(x, shared, seen));
+  if ('any' in c) return c.any.flatMap((x) => leavesOf(x, shared, seen));
+  if ('not' in c) return leavesOf(c.not, shared, seen);
   if ('condition' in c) {
     if (seen.has(c.condition) || !shared[c.condition]) return [];
-    seen.add(c.condition);
-    return factsRead(shared[c.condition]!, shared, seen);
+    return leavesOf(shared[c.condition]!, shared, new Set([...seen, c.condition]));
   }
-  const ref = typeof c.value === 'object' && !Array.isArray(c.value) ? [c.value.fact] : [];
-  return [c.fact, ...ref];
+  return [c];
+}
+
+/** Facts a condition reads, shared conditions expanded. */
+export function factsRead(c: Condition, shared: Record<string, Condition>): string[] {
+  return leavesOf(c, shared).flatMap((l) => [l.fact, ...(typeof l.value === 'object' && !Array.isArray(l.value) ? [l.value.fact] : [])]);
 }
 
 function findDeriveCycle(base: RuleBase): { path: string[]; file: string; at: string } | undefined {
