@@ -151,7 +151,7 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   if (word === 'save') return state.phase === 'result' ? { ...base, request: 'save' } : { ...base, error: 'save comes with the result: type done to finish first' };
   if (word === 'done') return state.phase === 'asking' ? finish(base, 'you asked for the result') : base;
   if (state.phase === 'finishing') return { ...base, error: 'the result is on its way: a moment' };
-  if (state.phase === 'result') return { ...base, error: 'the questions are finished: type save, back to change the last answer, or press Ctrl-C to leave' };
+  if (state.phase === 'result') return { ...base, error: 'the questions are finished: type start N, done N, report, record or save, back to change the last answer, or press Ctrl-C to leave' };
   const step = currentStep(state, ctx);
   if (step.kind !== 'ask') return { ...base, error: 'still working out the next question: a moment' };
   const parsed = parseAnswer(step.question, text);

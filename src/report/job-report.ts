@@ -31,6 +31,8 @@ const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replac
 const cell = (s: string) => esc(s).replace(/\|/g, '\\|').replace(/\n/g, ' ');
 /** An ISO time as people read it on paper: "2026-12-01 21:09 UTC"; other text as it was given. */
 const when = (iso: string) => (/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/.test(iso) && iso.endsWith('Z') ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : iso);
+/** A sentence ends with one full stop, even after initials ("P.R."). */
+const sentence = (text: string) => (text.endsWith('.') ? text : `${text}.`);
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'live test (qualified person)', isolated: 'isolated (after isolation and lockout)' } as const;
 
 export function jobReport(r: ReportInput): string {
@@ -125,8 +127,8 @@ export function jobReport(r: ReportInput): string {
     lines.push(`   - How: ${c.how} Instrument: ${c.instrument}.`);
     const hazards = c.hazards.map((h) => r.safety.hazards.find((x) => x.id === h)?.says).filter(Boolean);
     if (hazards.length) lines.push(`   - Hazards: ${hazards.join(' ')}`);
-    if (started) lines.push(`   - Started ${when(started.at)} by ${esc(started.by)}${started.authorisedBy ? `, authorised by ${esc(started.authorisedBy)} (${started.authorisation})` : ''}.`);
-    if (done) lines.push(`   - Done ${when(done.at)} by ${esc(done.by)}${done.signedOffBy ? `, signed off by ${esc(done.signedOffBy)}` : ''}${done.finding ? `. Found: ${esc(done.finding)}` : ''}.`);
+    if (started) lines.push(`   - ${sentence(`Started ${when(started.at)} by ${esc(started.by)}${started.authorisedBy ? `, authorised by ${esc(started.authorisedBy)} (${started.authorisation})` : ''}`)}`);
+    if (done) lines.push(`   - ${sentence(`Done ${when(done.at)} by ${esc(done.by)}${done.signedOffBy ? `, signed off by ${esc(done.signedOffBy)}` : ''}`)}${done.finding ? ` Found: ${sentence(esc(done.finding))}` : ''}`);
     if (!started && !done) lines.push('   - Not done.');
   });
   if (!d.checks.length) lines.push('No checks: no cause stood out.');

@@ -134,7 +134,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
       {state.saved && <Text>{state.saved}</Text>}
       {state.error && <Text {...(color ? { color: 'red' } : {})}>✗ {state.error}</Text>}
       {state.phase !== 'notice' && <Text>&gt; {typed}</Text>}
-      <Text {...(color ? { color: 'gray' } : {})} >{width < 70 ? 'Enter=unknown · back why causes safety done help · Ctrl-C' : 'Enter alone = unknown · back · why · causes · safety · done · help · Ctrl-C (kept)'}</Text>
+      <Text {...(color ? { color: 'gray' } : {})} >{width < 70 ? 'Enter=unknown · back why causes safety done help · Ctrl-C' : 'Enter alone = unknown · back · why · causes · safety · done · help · Ctrl-C'}</Text>
     </Box>
   );
 }
