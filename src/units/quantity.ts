@@ -4,7 +4,58 @@
  * only ever given to `unit()`, never to `evaluate` or `parse`.
  */
 import { quote } from './quote.js';
-import { create, unitDependencies, createUnitDependencies, type FactoryFunctionMap, type Unit } from 'mathjs';
+import {
+  create,
+  createCreateUnit,
+  createUnitClass,
+  createUnitFunction,
+  absDependencies,
+  addScalarDependencies,
+  BigNumberDependencies,
+  ComplexDependencies,
+  divideScalarDependencies,
+  formatDependencies,
+  FractionDependencies,
+  isNumericDependencies,
+  multiplyScalarDependencies,
+  numberDependencies,
+  subtractScalarDependencies,
+  typedDependencies,
+  type FactoryFunctionMap,
+  type Unit,
+} from 'mathjs';
+import { equalDependencies, fixDependencies, powDependencies, roundDependencies } from 'mathjs/number';
+
+/**
+ * What `unit()` and `createUnit()` need, spelled out instead of mathjs's `unitDependencies`, so
+ * that four functions the Unit class calls only with plain numbers here (our values are numbers,
+ * and mathjs turns its Fraction unit values into numbers before these calls) come in their
+ * number-only versions. The general ones pull in matrices, inverses and determinants, whose
+ * typed functions were most of the start-up. The scalar arithmetic stays general: temperature
+ * offsets are Fractions. test/units/lean-mathjs.test.ts compares this instance with full mathjs.
+ */
+const unitFactories = {
+  BigNumberDependencies,
+  ComplexDependencies,
+  FractionDependencies,
+  absDependencies,
+  addScalarDependencies,
+  divideScalarDependencies,
+  formatDependencies,
+  isNumericDependencies,
+  multiplyScalarDependencies,
+  numberDependencies,
+  subtractScalarDependencies,
+  typedDependencies,
+  powDependencies,
+  roundDependencies,
+  fixDependencies,
+  equalDependencies,
+  createUnitClass,
+  createUnitFunction,
+  createCreateUnit,
+  // mathjs's typings mark every dependency map optional; these are always defined.
+} as FactoryFunctionMap;
 
 /**
  * The private mathjs instance, made on first use: building its unit system costs tens of
@@ -13,8 +64,7 @@ import { create, unitDependencies, createUnitDependencies, type FactoryFunctionM
 let instance: ReturnType<typeof create> | undefined;
 function math(): ReturnType<typeof create> {
   if (!instance) {
-    // The two factories are always defined; mathjs's typings mark every dependency map optional.
-    instance = create({ unitDependencies, createUnitDependencies } as FactoryFunctionMap, {});
+    instance = create(unitFactories, { number: 'number' });
     // rpm as revolutions per minute, 1/time, so it converts to Hz (rev/s) as well.
     instance.createUnit('rpm', '1 / min');
     instance.createUnit('megohm', '1 Mohm');
