@@ -16,6 +16,7 @@ import type { Condition, Leaf } from '../knowledge/rulebase-schema.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import { quantitiesFedBy } from '../model/feeds.js';
 import type { DialogueQuestion } from './questions.js';
+import { compareIds } from '../engine/compare-ids.js';
 
 export interface CompiledQuestion {
   question: DialogueQuestion;
@@ -157,7 +158,7 @@ export function rankQuestions(policy: Policy, d: Diagnosis, available: (q: Dialo
   return policy.questions
     .filter((cq) => available(cq.question))
     .map((cq) => ({ question: cq.question, gain: chanceOfAnswer(cq.question, d.facts['present-state']) * informationGain(cq, b) }))
-    .sort((x, y) => y.gain - x.gain || x.question.id.localeCompare(y.question.id));
+    .sort((x, y) => y.gain - x.gain || compareIds(x.question.id, y.question.id));
 }
 
 export function chooseQuestion(policy: Policy, d: Diagnosis, available: (q: DialogueQuestion) => boolean): Choice | undefined {

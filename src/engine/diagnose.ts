@@ -12,6 +12,7 @@ import { describeTree, fillTemplate } from './explain.js';
 import { jobFacts, type Facts } from './facts.js';
 import { orderChecks } from './order-checks.js';
 import { runToFixpoint } from './run-rules.js';
+import { compareIds } from './compare-ids.js';
 
 export interface Evidence {
   rule: string;
@@ -100,7 +101,7 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
     const score = combineAll(evidence.map((e) => e.weight));
     if (score > 0) causes.push({ id: cause.id, title: cause.title, score: Number(score.toFixed(3)), evidence: evidence.sort((a, b) => b.weight - a.weight) });
   }
-  causes.sort((a, b) => b.score - a.score || a.id.localeCompare(b.id));
+  causes.sort((a, b) => b.score - a.score || compareIds(a.id, b.id));
 
   const warnings = base.safety.warnings.filter((w) => warningIds.has(w.id));
   const order = warnings.some((w) => w.clearFaultFirst) ? 'clear-fault-first' : warnings.some((w) => w.isolateFirst) ? 'isolate-first' : 'normal';

@@ -15,6 +15,7 @@ import { OBSERVATIONS, SYMPTOMS, type ObservationName } from '../knowledge/vocab
 import { diagnose } from './diagnose.js';
 import { buildEngine } from './run-rules.js';
 import { jobFacts } from './facts.js';
+import { compareIds } from './compare-ids.js';
 
 
 export interface Draft {
@@ -77,7 +78,7 @@ function candidates(target: CaseFile, others: CaseFile[]): Candidate[] {
     const spec = OBSERVATIONS[name];
     out.push({ leaf: { fact: name, operator: 'is', value: answer }, commonness: rivals.length ? answered / rivals.length : 0, says: `${spec.says}: {obs:${name}}` });
   }
-  return out.filter((c) => c.commonness <= TOO_COMMON).sort((a, b) => a.commonness - b.commonness || JSON.stringify(a.leaf).localeCompare(JSON.stringify(b.leaf)));
+  return out.filter((c) => c.commonness <= TOO_COMMON).sort((a, b) => a.commonness - b.commonness || compareIds(JSON.stringify(a.leaf), JSON.stringify(b.leaf)));
 }
 
 export function withDraft(base: RuleBase, draft: DraftFile, file: string): RuleBase {

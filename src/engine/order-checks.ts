@@ -13,6 +13,7 @@
  * Kadane and Simon, 1977; references from memory).
  */
 import type { Check } from '../knowledge/rulebase-schema.js';
+import { compareIds } from './compare-ids.js';
 
 export interface RankedCause {
   id: string;
@@ -48,5 +49,5 @@ export function orderChecks(ranked: RankedCause[], checks: Check[], order: Check
   return [...causesOf.keys()]
     .filter((id) => byId.has(id))
     .map((id) => ({ check: byId.get(id)!, causes: causesOf.get(id)! }))
-    .sort((a, b) => group(a.check) - group(b.check) || worth(b.check.id) - worth(a.check.id) || a.check.id.localeCompare(b.check.id));
+    .sort((a, b) => group(a.check) - group(b.check) || worth(b.check.id) - worth(a.check.id) || compareIds(a.check.id, b.check.id));
 }

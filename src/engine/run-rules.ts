@@ -8,6 +8,7 @@ import { Engine, type RuleResult, type TopLevelCondition } from 'json-rules-engi
 import type { Condition, Rule } from '../knowledge/rulebase-schema.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import type { Facts } from './facts.js';
+import { compareIds } from './compare-ids.js';
 
 export interface Fired {
   rule: Rule;
@@ -96,5 +97,5 @@ export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start:
 }
 
 function sortByName(fired: Fired[]): Fired[] {
-  return [...fired].sort((a, b) => a.rule.name.localeCompare(b.rule.name));
+  return [...fired].sort((a, b) => compareIds(a.rule.name, b.rule.name));
 }
