@@ -1,6 +1,9 @@
 // Bundles the CLI into one ESM file so start-up does not pay for thousands of module loads.
 import { build } from 'esbuild';
-import { chmodSync, readFileSync, rmSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { chmodSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 
 const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8'));
 
@@ -28,3 +31,14 @@ await build({
   banner: { js: '#!/usr/bin/env node\nimport { createRequire as __createRequire } from "node:module"; const require = __createRequire(import.meta.url);' },
 });
 chmodSync('dist/cli.mjs', 0o755);
+
+// The seal of the built-in rules: validated here in full, so a run need not validate them again.
+const tmp = mkdtempSync(join(tmpdir(), 'dctriage-build-'));
+try {
+  const sealer = join(tmp, 'write-rule-seal.mjs');
+  await build({ entryPoints: ['scripts/write-rule-seal.ts'], outfile: sealer, bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning' });
+  const run = spawnSync(process.execPath, [sealer, 'rules', 'dist/rules.seal.json'], { stdio: 'inherit' });
+  if (run.status !== 0) console.warn('build: no rule seal written; every run will validate the built-in rules in full');
+} finally {
+  rmSync(tmp, { recursive: true, force: true });
+}

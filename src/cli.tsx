@@ -9,6 +9,7 @@ import { fileURLToPath } from 'node:url';
 import { computeExpectations } from './model/expected.js';
 import { loadCaseFile, modelInput } from './knowledge/load-case.js';
 import { loadRuleBase, type RuleBase } from './knowledge/load-rules.js';
+import { readRuleSeal, type RuleSeal } from './knowledge/rule-seal.js';
 import { formatIssues, type Issue } from './knowledge/result.js';
 import { diagnose } from './engine/diagnose.js';
 import { buildEngine, RuleCycleError } from './engine/run-rules.js';
@@ -56,6 +57,16 @@ import { resolveKnowledge } from './shell/settings.js';
 /** The built-in rule folder ships beside the bundle (dist/../rules). */
 const BUILT_IN_RULES = fileURLToPath(new URL('../rules/', import.meta.url));
 const BUILT_IN_CASES = fileURLToPath(new URL('../cases/', import.meta.url));
+
+/** Written by the build beside the bundle; absent when running from source. */
+const RULE_SEAL_FILE = fileURLToPath(new URL('./rules.seal.json', import.meta.url));
+let ruleSeal: RuleSeal | undefined | null = null;
+
+/** A rule folder, with the files the build proved valid taken as read (see rule-seal.ts). */
+function loadRules(dir: string) {
+  if (ruleSeal === null) ruleSeal = readRuleSeal(RULE_SEAL_FILE);
+  return loadRuleBase(dir, { seal: ruleSeal });
+}
 
 declare const DCTRIAGE_VERSION: string;
 
@@ -148,7 +159,7 @@ async function main(argv: string[]): Promise<number> {
         if (!rest[1]) throw new UsageError('cases add needs a case file: dctriage cases add FILE');
         const k = knowledge(opts, false);
         if (!k.ok) return fail(k.issues);
-        const base = loadRuleBase(k.value.rules);
+        const base = loadRules(k.value.rules);
         if (!base.ok) return fail(base.issues);
         return print(addCase(rest[1], k.value.cases, base.value, new Date().toISOString().slice(0, 10)));
       }
@@ -158,7 +169,7 @@ async function main(argv: string[]): Promise<number> {
       const k = knowledge(opts, rest[0] === 'check');
       if (!k.ok) return fail(k.issues);
       if (rest[0] === 'check') return print(await checkRules(k.value.rules, k.value.cases, !!opts.json));
-      const base = loadRuleBase(k.value.rules);
+      const base = loadRules(k.value.rules);
       if (!base.ok) return fail(base.issues);
       if (rest[0] === 'draft') {
         if (!opts['from-case']) throw new UsageError('rules draft needs --from-case FILE');
@@ -174,7 +185,7 @@ async function main(argv: string[]): Promise<number> {
       if (!rest[0]) throw new UsageError('review needs a saved job: dctriage review FILE [--close NAME]');
       const k = knowledge(opts, true);
       if (!k.ok) return fail(k.issues);
-      const base = loadRuleBase(k.value.rules);
+      const base = loadRules(k.value.rules);
       if (!base.ok) return fail(base.issues);
       return print(await reviewJob(rest[0], base.value, opts.close, new Date().toISOString()));
     }
@@ -190,7 +201,7 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
   const k = knowledge(opts, true);
   if (!k.ok) return fail(k.issues);
   const dir = dirArg ?? k.value.cases;
-  const base = loadRuleBase(k.value.rules);
+  const base = loadRules(k.value.rules);
   if (!base.ok) return fail(base.issues);
   let files: string[];
   try {
@@ -218,7 +229,7 @@ function loadJob(file: string | undefined, command: string, opts: { rules?: stri
   if (!file) throw new UsageError(`${command} needs a case file: dctriage ${command} FILE`);
   const k = knowledge(opts, true);
   if (!k.ok) return k;
-  const base = loadRuleBase(k.value.rules);
+  const base = loadRules(k.value.rules);
   if (!base.ok) return base;
   const loaded = loadCaseFile(file, causeIdsOf(base.value));
   if (!loaded.ok) return loaded;
@@ -266,7 +277,7 @@ async function dialogue(resume: boolean, opts: { rules?: string | undefined; cas
   if (!safety.ok) return fail(safety.issues);
   const color = !process.env.NO_COLOR;
   const prepare = (): Prepared => {
-    const base = loadRuleBase(rulesDir);
+    const base = loadRules(rulesDir);
     if (!base.ok) return { ok: false, message: formatIssues(base.issues) };
     const flow = buildFlow(base.value);
     let initialAnswers: Answer[] = [];

@@ -8,7 +8,8 @@ import type * as z from 'zod';
 import { join } from 'node:path';
 import { QUANTITY_NAMES } from '../model/quantity-names.js';
 import { READING_FIELDS } from './case-schema.js';
-import { readJson, validate } from './read-json.js';
+import { readJsonFile, validate } from './read-json.js';
+import { parseKeptFileAsIs, sealKey, type RuleSeal } from './rule-seal.js';
 import { failed, ok, type Issue, type Result } from './result.js';
 import {
   CATALOGUE_FILES,
@@ -60,7 +61,14 @@ export const STATIC_FACTS = {
   measured: 'quantities',
 } as const;
 
-export function loadRuleBase(dir: string): Result<RuleBase> {
+export interface LoadOptions {
+  /** Files proved valid by the build (see rule-seal.ts): used as read, without a second pass. */
+  seal?: RuleSeal | undefined;
+  /** Told the seal key of every file that passed its schema unchanged, for writing a seal. */
+  passed?: ((key: string) => void) | undefined;
+}
+
+export function loadRuleBase(dir: string, options: LoadOptions = {}): Result<RuleBase> {
   let names: string[];
   try {
     names = readdirSync(dir, { withFileTypes: true })
@@ -71,12 +79,16 @@ export function loadRuleBase(dir: string): Result<RuleBase> {
     return failed({ code: 'unreadable', file: dir, path: '', message: 'rule folder cannot be read' });
   }
   const issues: Issue[] = [];
-  const read = <S extends z.ZodType>(name: string, schema: S): z.output<S> | undefined => {
+  const read = <S extends z.ZodType>(name: string, schemaName: string, schema: S): z.output<S> | undefined => {
     const file = join(dir, name);
-    const raw = readJson(file);
+    const raw = readJsonFile(file);
     if (!raw.ok) return void issues.push(...raw.issues);
-    const v = validate(file, raw.value, schema);
+    const key = options.seal || options.passed ? sealKey(schemaName, raw.value.text) : '';
+    // These very bytes passed this schema at build time, and its parse returned them unchanged.
+    if (options.seal?.has(key)) return raw.value.value as z.output<S>;
+    const v = validate(file, raw.value.value, schema);
     if (!v.ok) return void issues.push(...v.issues);
+    if (options.passed && parseKeptFileAsIs(raw.value.value, v.value)) options.passed(key);
     return v.value;
   };
   for (const required of Object.keys(CATALOGUE_FILES)) {
@@ -84,20 +96,30 @@ export function loadRuleBase(dir: string): Result<RuleBase> {
   }
   if (issues.length) return failed(...issues);
 
-  const causes = read('causes.json', causesFile)?.causes;
-  const checks = read('checks.json', checksFile)?.checks;
-  const questions = read('questions.json', questionsFile)?.questions;
-  const safety = read('safety.json', safetyFile);
-  const conditions = read('conditions.json', sharedConditionsFile)?.conditions;
+  const causes = read('causes.json', 'causes.json', causesFile)?.causes;
+  const checks = read('checks.json', 'checks.json', checksFile)?.checks;
+  const questions = read('questions.json', 'questions.json', questionsFile)?.questions;
+  const safety = read('safety.json', 'safety.json', safetyFile);
+  const conditions = read('conditions.json', 'conditions.json', sharedConditionsFile)?.conditions;
   const rules: LoadedRule[] = [];
   for (const name of names.filter((n) => !(n in CATALOGUE_FILES))) {
-    const f = read(name, ruleFile);
+    const f = read(name, 'rule-file', ruleFile);
     f?.rules.forEach((rule, k) => rules.push({ rule, file: join(dir, name), at: `rules[${k}]` }));
   }
   if (issues.length || !causes || !checks || !questions || !safety || !conditions) return failed(...issues);
   const base: RuleBase = { dir, causes, checks, questions, safety, conditions, rules };
   const cross = crossCheck(base);
   return cross.length ? failed(...cross) : ok(base);
+}
+
+/**
+ * The seal keys of a rule folder's files, for the build to write: only when the whole folder
+ * loads, and only for files the schemas returned unchanged.
+ */
+export function sealRuleFolder(dir: string): Result<string[]> {
+  const keys: string[] = [];
+  const loaded = loadRuleBase(dir, { passed: (k) => keys.push(k) });
+  return loaded.ok ? ok(keys) : loaded;
 }
 
 /** Everything one file's schema cannot see: references between files. */

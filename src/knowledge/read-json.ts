@@ -8,6 +8,12 @@ import { oneLine, quote } from '../units/quote.js';
 export const MAX_FILE_BYTES = 1024 * 1024;
 
 export function readJson(file: string): Result<unknown> {
+  const r = readJsonFile(file);
+  return r.ok ? ok(r.value.value) : r;
+}
+
+/** The parsed JSON with the text it came from. */
+export function readJsonFile(file: string): Result<{ text: string; value: unknown }> {
   let size: number;
   try {
     const st = statSync(file);
@@ -26,7 +32,7 @@ export function readJson(file: string): Result<unknown> {
     return failed({ code: 'unreadable', file, path: '', message: describeFsError(e) });
   }
   try {
-    return ok(JSON.parse(text) as unknown);
+    return ok({ text, value: JSON.parse(text) as unknown });
   } catch (e) {
     return failed({ code: 'not-json', file, path: '', message: `not valid JSON (${oneLine((e as Error).message, 120)})` });
   }
