@@ -1,4 +1,7 @@
-// Bundles the CLI into one ESM file so start-up does not pay for thousands of module loads.
+// Builds the dctriage command from the same sources twice (see src/bin.ts):
+//   dist/cli.mjs + dist/chunks/  ES modules: the launcher, and the dialogue with its screens;
+//   dist/core.cjs (+ .cache)      one CommonJS bundle with a V8 code cache, for every command.
+// Then seals the built-in rules (src/knowledge/rule-seal.ts) and writes the code cache.
 import { build } from 'esbuild';
 import { spawnSync } from 'node:child_process';
 import { chmodSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
@@ -6,25 +9,27 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
 const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8'));
+const common = {
+  bundle: true,
+  platform: 'node',
+  target: 'node20',
+  logLevel: 'warning',
+  define: { 'process.env.NODE_ENV': '"production"', DCTRIAGE_VERSION: JSON.stringify(pkg.version) },
+};
 
 // Old chunks would pile up under their hashed names.
 rmSync('dist', { recursive: true, force: true });
 
 await build({
-  entryPoints: ['src/cli.tsx'],
+  ...common,
+  entryPoints: { cli: 'src/bin.ts' },
   outdir: 'dist',
-  entryNames: '[name]',
   chunkNames: 'chunks/[name]-[hash]',
   outExtension: { '.js': '.mjs' },
-  bundle: true,
-  platform: 'node',
   format: 'esm',
-  target: 'node20',
-  // The dialogue's screens (Ink, React) are a chunk of their own, loaded only for the dialogue;
-  // a single file would also keep all of mathjs, which a lazily loaded part defeats tree-shaking for.
+  // The launcher stays small; the shell and the screens (Ink, React) are chunks loaded when needed.
+  // A single file would also keep all of mathjs, which a lazily loaded part defeats tree-shaking for.
   splitting: true,
-  logLevel: 'warning',
-  define: { 'process.env.NODE_ENV': '"production"', DCTRIAGE_VERSION: JSON.stringify(pkg.version) },
   // ink imports react-devtools-core statically; it is never used at run time.
   alias: { 'react-devtools-core': './stubs/react-devtools-core.js' },
   // CJS dependencies (signal-exit, json-rules-engine) call require() inside the ESM bundle.
@@ -32,13 +37,27 @@ await build({
 });
 chmodSync('dist/cli.mjs', 0o755);
 
-// The seal of the built-in rules: validated here in full, so a run need not validate them again.
+await build({
+  ...common,
+  entryPoints: ['src/main.tsx'],
+  outfile: 'dist/core.cjs',
+  format: 'cjs',
+});
+
+// Build-time steps written in TypeScript: bundled to a temporary file and run with this node.
 const tmp = mkdtempSync(join(tmpdir(), 'dctriage-build-'));
+function runScript(entry, args, failure) {
+  const out = join(tmp, entry.replace(/\W/g, '_') + '.mjs');
+  return build({ ...common, entryPoints: [entry], outfile: out, format: 'esm' }).then(() => {
+    const run = spawnSync(process.execPath, [out, ...args], { stdio: ['ignore', 'ignore', 'inherit'] });
+    if (run.status !== 0) console.warn(`build: ${failure}`);
+  });
+}
 try {
-  const sealer = join(tmp, 'write-rule-seal.mjs');
-  await build({ entryPoints: ['scripts/write-rule-seal.ts'], outfile: sealer, bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning' });
-  const run = spawnSync(process.execPath, [sealer, 'rules', 'dist/rules.seal.json'], { stdio: 'inherit' });
-  if (run.status !== 0) console.warn('build: no rule seal written; every run will validate the built-in rules in full');
+  // The seal of the built-in rules: validated here in full, so a run need not validate them again.
+  await runScript('scripts/write-rule-seal.ts', ['rules', 'dist/rules.seal.json'], 'no rule seal written; every run will validate the built-in rules in full');
+  // The code cache, made after the bundle has run typical commands, so it holds their compiled functions.
+  await runScript('scripts/write-code-cache.ts', ['dist/core.cjs', 'dist/core.cjs.cache', 'cases/2026-10-14-press-feed-field-weak.json'], 'no code cache written; commands will start more slowly');
 } finally {
   rmSync(tmp, { recursive: true, force: true });
 }

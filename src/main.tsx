@@ -2,10 +2,8 @@
  * The shell: arguments, files, output and exit codes. Everything it calls is pure or returns
  * coded issues; only this file prints or exits.
  */
-import { parseArgs } from 'node:util';
 import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { computeExpectations } from './model/expected.js';
 import { loadCaseFile, modelInput } from './knowledge/load-case.js';
 import { loadRuleBase, type RuleBase } from './knowledge/load-rules.js';
@@ -51,20 +49,30 @@ import { formatCaseCheck } from './shell/format-case-check.js';
 import { USAGE } from './shell/help.js';
 import { safetyFile } from './knowledge/rulebase-schema.js';
 import type { Prepared } from './ui/run-dialogue.js';
+
+/** Loads the dialogue's screens (Ink, React): given by the launcher, so this module never imports them. */
+export type ScreensLoader = () => Promise<typeof import('./ui/run-dialogue.js')>;
+
+/** What the launcher knows of where it runs from: this module may sit in either build's folder. */
+export interface Install {
+  /** The built-in rule and case folders. */
+  rules: string;
+  cases: string;
+  /** The build's seal of the built-in rules (see rule-seal.ts); missing when running from source. */
+  ruleSeal: string;
+  loadScreens: ScreensLoader;
+}
 import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
 import { resolveKnowledge } from './shell/settings.js';
+import { parseCommandLine } from './shell/cli-options.js';
 
-/** The built-in rule folder ships beside the bundle (dist/../rules). */
-const BUILT_IN_RULES = fileURLToPath(new URL('../rules/', import.meta.url));
-const BUILT_IN_CASES = fileURLToPath(new URL('../cases/', import.meta.url));
-
-/** Written by the build beside the bundle; absent when running from source. */
-const RULE_SEAL_FILE = fileURLToPath(new URL('./rules.seal.json', import.meta.url));
+/** Set once by runCli. */
+let install: Install;
 let ruleSeal: RuleSeal | undefined | null = null;
 
 /** A rule folder, with the files the build proved valid taken as read (see rule-seal.ts). */
 function loadRules(dir: string) {
-  if (ruleSeal === null) ruleSeal = readRuleSeal(RULE_SEAL_FILE);
+  if (ruleSeal === null) ruleSeal = readRuleSeal(install.ruleSeal);
   return loadRuleBase(dir, { seal: ruleSeal });
 }
 
@@ -84,26 +92,7 @@ function out(text: string): void {
 async function main(argv: string[]): Promise<number> {
   let parsed;
   try {
-    parsed = parseArgs({
-      args: argv,
-      allowPositionals: true,
-      options: {
-        help: { type: 'boolean', short: 'h' },
-        version: { type: 'boolean', short: 'V' },
-        json: { type: 'boolean' },
-        rules: { type: 'string' },
-        adaptive: { type: 'boolean' },
-        machine: { type: 'string' },
-        session: { type: 'string' },
-        cases: { type: 'string' },
-        'from-case': { type: 'string' },
-        force: { type: 'boolean' },
-        report: { type: 'string' },
-        'no-chart': { type: 'boolean' },
-        role: { type: 'string' },
-        close: { type: 'string' },
-      },
-    });
+    parsed = parseCommandLine(argv);
   } catch (e) {
     throw new UsageError((e as Error).message);
   }
@@ -238,7 +227,7 @@ function loadJob(file: string | undefined, command: string, opts: { rules?: stri
 
 /** Where the rules and cases are; reading commands fall back to the built-in folders. */
 function knowledge(opts: { rules?: string | undefined; cases?: string | undefined }, reading: boolean) {
-  return resolveKnowledge(opts, process.env, process.cwd(), reading ? { rules: BUILT_IN_RULES, cases: BUILT_IN_CASES } : undefined);
+  return resolveKnowledge(opts, process.env, process.cwd(), reading ? { rules: install.rules, cases: install.cases } : undefined);
 }
 
 function print(o: Outcome): number {
@@ -248,13 +237,16 @@ function print(o: Outcome): number {
 }
 
 /** The interactive dialogue; Ink is loaded only here. */
-async function dialogue(resume: boolean, opts: { rules?: string | undefined; cases?: string | undefined; machine?: string | undefined; session?: string | undefined; report?: string | undefined; role?: string | undefined }): Promise<number> {
+async function dialogue(
+  resume: boolean,
+  opts: { rules?: string | undefined; cases?: string | undefined; machine?: string | undefined; session?: string | undefined; report?: string | undefined; role?: string | undefined },
+): Promise<number> {
   if (!process.stdin.isTTY || !process.stdout.isTTY) {
     process.stderr.write('dctriage: the dialogue needs a terminal. For a job in a file, run: dctriage diagnose FILE\n');
     return 2;
   }
   const sessionFile = opts.session ?? defaultSessionFile();
-  let rulesDir = opts.rules ?? BUILT_IN_RULES;
+  let rulesDir = opts.rules ?? install.rules;
   let machineFile: unknown;
   let saved: Session | undefined;
   if (resume) {
@@ -303,7 +295,7 @@ async function dialogue(resume: boolean, opts: { rules?: string | undefined; cas
       },
     };
   };
-  const { runDialogue } = await import('./ui/run-dialogue.js');
+  const { runDialogue } = await install.loadScreens();
   const ended = await runDialogue({ notice: safety.value.notice, color, prepare });
   if (ended.message) process.stderr.write(ended.message + '\n');
   return ended.code;
@@ -356,17 +348,20 @@ function causeIdsOf(base: RuleBase): Set<string> {
   return new Set(base.causes.map((c) => c.id));
 }
 
-// A reader that stops early (dctriage … | head) is not an error.
-process.stdout.on('error', (e: NodeJS.ErrnoException) => {
-  if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
-  throw e;
-});
-
-main(process.argv.slice(2)).then(
-  (code) => {
-    process.exitCode = code;
-  },
-  (e: unknown) => {
+/**
+ * Runs one command line and sets the exit code. The launcher (bin.ts) calls this from either
+ * build; it loads nothing of the screens unless the dialogue opens.
+ */
+export async function runCli(argv: string[], from: Install): Promise<void> {
+  install = from;
+  // A reader that stops early (dctriage … | head) is not an error.
+  process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw e;
+  });
+  try {
+    process.exitCode = await main(argv);
+  } catch (e) {
     if (e instanceof RuleCycleError) {
       process.stderr.write(`dctriage: ${e.message}\n`);
       process.exitCode = 2;
@@ -377,5 +372,5 @@ main(process.argv.slice(2)).then(
       process.stderr.write(`dctriage: internal error: ${(e as Error).message}\nPlease report this with the file you gave.\n`);
       process.exitCode = 70;
     }
-  },
-);
+  }
+}

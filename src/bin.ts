@@ -1,0 +1,30 @@
+/**
+ * The dctriage command. Commands run from dist/core.cjs with its code cache (fast start); the
+ * dialogue runs from the ES module build, whose chunks load the screens only when it opens.
+ * Both builds are made from the same sources by build.mjs. From source (npm run dev), or when
+ * the CommonJS bundle is missing, everything runs from the ES modules.
+ */
+import { fileURLToPath } from 'node:url';
+import { opensDialogue } from './shell/cli-options.js';
+import { runBundle } from './launch/compiled-bundle.js';
+import type { Install, runCli as RunCli } from './main.js';
+
+// This file is always dist/cli.mjs (or src/bin.ts from source): paths are relative to it.
+const here = (path: string) => fileURLToPath(new URL(path, import.meta.url));
+const install: Install = {
+  rules: here('../rules/'),
+  cases: here('../cases/'),
+  ruleSeal: here('./rules.seal.json'),
+  loadScreens: () => import('./ui/run-dialogue.js'),
+};
+const argv = process.argv.slice(2);
+
+async function pickRunCli(): Promise<typeof RunCli> {
+  if (!opensDialogue(argv)) {
+    const core = runBundle(here('./core.cjs'), here('./core.cjs.cache'));
+    if (core && typeof core.exports.runCli === 'function') return core.exports.runCli as typeof RunCli;
+  }
+  return (await import('./main.js')).runCli;
+}
+
+await (await pickRunCli())(argv, install);
