@@ -7,6 +7,7 @@
 import { fileURLToPath } from 'node:url';
 import { opensDialogue } from './shell/cli-options.js';
 import { runBundle } from './launch/compiled-bundle.js';
+import { withoutFetch } from './launch/without-fetch.js';
 import type { Install, runCli as RunCli } from './main.js';
 
 // This file is always dist/cli.mjs (or src/bin.ts from source): paths are relative to it.
@@ -15,7 +16,7 @@ const install: Install = {
   rules: here('../rules/'),
   cases: here('../cases/'),
   ruleSeal: here('./rules.seal.json'),
-  loadScreens: () => import('./ui/run-dialogue.js'),
+  loadScreens: () => withoutFetch(() => import('./ui/run-dialogue.js')),
 };
 const argv = process.argv.slice(2);
 
