@@ -94,3 +94,19 @@ describe('evidence in the fitter\'s words', () => {
     expect(weak?.evidence.map((e) => e.says)).toContain('field current 0.45 A is 50 % of the 0.9 A a healthy field draws at 220 V');
   });
 });
+
+describe('armature voltage below the plate', () => {
+  // Common practice: a converter sets the armature voltage for the speed it is asked for, so a
+  // voltage below the plate says nothing of the supply; on a fixed supply it is the supply.
+  const hunting = { symptoms: ['speed-unstable' as const], readings: { armatureVoltage: 190 } };
+
+  it('points at the supply on a fixed supply', async () => {
+    const d = await diagnoseJob({ machine: shunt, ...hunting });
+    expect(d.causes.find((c) => c.id === 'low-supply-voltage')?.score ?? 0).toBeGreaterThanOrEqual(0.5);
+  });
+
+  it('is not evidence of a low supply on a controlled converter', async () => {
+    const d = await diagnoseJob({ machine: { ...shunt, drive: 'controlled-converter', feedback: 'tacho' }, ...hunting });
+    expect(d.causes.find((c) => c.id === 'low-supply-voltage')?.score ?? 0).toBeLessThan(0.3);
+  });
+});
