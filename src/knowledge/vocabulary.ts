@@ -53,7 +53,7 @@ export const OBSERVATIONS = {
   'cooling-air': { says: 'cooling air flow', values: { normal: 'normal', low: 'low', none: 'none' } },
   'turns-freely': { says: 'isolated and uncoupled, the shaft turns freely by hand', values: { yes: 'yes', no: 'no' } },
   'bearing-noise': { says: 'bearing noise', values: { yes: 'yes', no: 'no' } },
-  'tacho-signal': { says: 'the tacho or encoder signal', values: { 'follows-speed': 'follows speed', absent: 'absent', reversed: 'reversed' } },
+  'tacho-signal': { says: 'the tacho or encoder signal', values: { 'follows-speed': 'follows speed', absent: 'absent', reversed: 'reversed', erratic: 'jumps about or drops out' } },
   'current-at-limit': { says: 'the drive shows it is holding current at its limit', values: { yes: 'yes', no: 'no' } },
   'current-ripple': { says: 'ripple on the armature current or voltage', values: { normal: 'normal', high: 'high, or a missing pulse' } },
   'trips-when': { says: 'when it trips', values: { 'at-start': 'at start', 'under-load': 'under load', random: 'at random' } },
