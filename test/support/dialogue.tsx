@@ -28,13 +28,30 @@ export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: 
       color={false}
     />,
   );
+  /**
+   * Waits until the dialogue has drawn a frame after `since` frames and has done what that
+   * frame set off: React runs its effects (saving, diagnosing) on the next turns of the event
+   * loop, and a diagnosis is promise work only. So this waits on turns of the loop, not on a
+   * clock, and no test depends on the machine's speed.
+   */
+  const settled = async (since: number) => {
+    const deadline = Date.now() + 20000;
+    while (Date.now() < deadline) {
+      await settle(5);
+      if (app.frames.length <= since) continue;
+      for (let turn = 0; turn < 5; turn++) await new Promise((r) => setImmediate(r));
+      if (!/Working out/.test(app.lastFrame() ?? '')) return;
+    }
+    throw new Error(`the dialogue did not settle; its last frame:\n${app.lastFrame()}`);
+  };
   /** Types a line and presses Enter, then waits for the dialogue (and its diagnosis) to settle. */
   const type = async (line: string) => {
-    await settle();
+    await settled(0);
     app.stdin.write(line);
     await settle();
+    const before = app.frames.length;
     app.stdin.write('\r');
-    await settle(60);
+    await settled(before);
   };
   /** Everything printed so far: the settled transcript and the live area. */
   const screen = () => app.frames.join('\n');
