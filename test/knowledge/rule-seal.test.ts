@@ -16,6 +16,16 @@ function builtInSeal(): RuleSeal {
   return new Set(keys.value);
 }
 
+/** A copy of the built-in rules with one rule's weight out of range in field.json. */
+function copyWithAnEditedRule(): { dir: string; file: string } {
+  const dir = copyOfRules();
+  const file = join(dir, 'field.json');
+  const doc = JSON.parse(readFileSync(file, 'utf8'));
+  doc.rules[0].weight = 7;
+  writeFileSync(file, JSON.stringify(doc, null, 2));
+  return { dir, file };
+}
+
 describe('the rule seal', () => {
   it('covers every built-in rule file: no schema changes a valid file as it parses it', () => {
     const files = readdirSync(RULES_DIR).filter((f) => f.endsWith('.json'));
@@ -48,11 +58,7 @@ describe('the rule seal', () => {
   });
 
   it('does not vouch for a file once it is edited: the edit is validated in full', () => {
-    const dir = copyOfRules();
-    const file = join(dir, 'field.json');
-    const doc = JSON.parse(readFileSync(file, 'utf8'));
-    doc.rules[0].weight = 7;
-    writeFileSync(file, JSON.stringify(doc, null, 2));
+    const { dir, file } = copyWithAnEditedRule();
     const loaded = loadRuleBase(dir, { seal: builtInSeal() });
     expect(loaded.ok).toBe(false);
     if (!loaded.ok) expect(loaded.issues.map((i) => `${i.file} ${i.path}`)).toEqual([`${file} rules[0].weight`]);
@@ -79,11 +85,7 @@ describe('the rule seal', () => {
   });
 
   it('in the built CLI, still catches an edit to a copy of the built-in rules', () => {
-    const dir = copyOfRules();
-    const file = join(dir, 'field.json');
-    const doc = JSON.parse(readFileSync(file, 'utf8'));
-    doc.rules[0].weight = 7;
-    writeFileSync(file, JSON.stringify(doc, null, 2));
+    const { dir, file } = copyWithAnEditedRule();
     const someCase = join(CASES_DIR, readdirSync(CASES_DIR).find((f) => f.endsWith('.json'))!);
     const r = runCli(['diagnose', someCase, '--json', '--rules', dir]);
     expect(r.code).toBe(2);

@@ -8,11 +8,17 @@ import { ROOT, runCli } from '../support/cli.js';
 
 const answer = (n: number) => `module.exports.answer = function () { return ${n}; }; module.exports.answer();\n`;
 
+/** A one-function bundle in a fresh folder. */
+function bundleAnswering(n: number): { dir: string; file: string } {
+  const dir = mkdtempSync(join(tmpdir(), 'dctriage-bundle-'));
+  const file = join(dir, 'b.cjs');
+  writeFileSync(file, answer(n));
+  return { dir, file };
+}
+
 describe('running a bundle with a code cache', () => {
   it('uses a cache made from the same source', () => {
-    const dir = mkdtempSync(join(tmpdir(), 'dctriage-bundle-'));
-    const file = join(dir, 'b.cjs');
-    writeFileSync(file, answer(41));
+    const { dir, file } = bundleAnswering(41);
     const first = runBundle(file, join(dir, 'none.cache'))!;
     expect(first.cacheUsed).toBe(false);
     writeFileSync(join(dir, 'b.cache'), codeCacheBytes(first));
@@ -22,9 +28,7 @@ describe('running a bundle with a code cache', () => {
   });
 
   it('refuses a cache made from other source of the same length, which V8 alone would take', () => {
-    const dir = mkdtempSync(join(tmpdir(), 'dctriage-bundle-'));
-    const file = join(dir, 'b.cjs');
-    writeFileSync(file, answer(41));
+    const { dir, file } = bundleAnswering(41);
     writeFileSync(join(dir, 'b.cache'), codeCacheBytes(runBundle(file, undefined)!));
     writeFileSync(file, answer(42));
     const edited = runBundle(file, join(dir, 'b.cache'))!;
@@ -33,9 +37,7 @@ describe('running a bundle with a code cache', () => {
   });
 
   it('runs without the cache when it is truncated or missing', () => {
-    const dir = mkdtempSync(join(tmpdir(), 'dctriage-bundle-'));
-    const file = join(dir, 'b.cjs');
-    writeFileSync(file, answer(7));
+    const { dir, file } = bundleAnswering(7);
     writeFileSync(join(dir, 'b.cache'), Buffer.alloc(16));
     expect(runBundle(file, join(dir, 'b.cache'))!.cacheUsed).toBe(false);
     expect(runBundle(join(dir, 'missing.cjs'), undefined)).toBeUndefined();
