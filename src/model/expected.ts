@@ -4,7 +4,7 @@
  * computed and which value would allow it.
  */
 import { CONNECTION_TRAITS, type MachineData, type Readings } from './machine.js';
-import type { QuantityName } from './quantity-names.js';
+import { CONVERTER_ARMATURE_VOLTAGE_BAND, type HealthyBand, type QuantityName } from './quantity-names.js';
 import { describeCurve, fluxPerUnit } from './magnetization.js';
 import { resistanceAt, windingTemperature } from './resistance.js';
 import { CLASS_TEMPERATURE_C, windingTemperatureLimit, workingTemperature } from './thermal.js';
@@ -24,6 +24,8 @@ export interface Quantity {
   ratio: number | null;
   basis: 'computed' | 'estimated';
   formula: string;
+  /** The healthy band where this machine has its own, instead of the quantity's usual one. */
+  band?: HealthyBand;
 }
 
 export interface Missing {
@@ -88,6 +90,7 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
       ratio: measured === null || q.value === 0 ? null : round(measured / q.value),
       basis: q.estimated ? 'estimated' : 'computed',
       formula: q.formula,
+      ...(q.band ? { band: q.band } : {}),
     };
   };
   const miss = (quantity: QuantityName, ...needs: string[]) => out.missing.push({ quantity, needs });
@@ -196,7 +199,13 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
     add('ratedArmatureCurrent', { value: ratedIa, unit: 'A', measured: readings.armatureCurrent, formula: np.armatureCurrent !== undefined ? 'nameplate' : 'Ia = IL − If' });
   }
   if (np.armatureVoltage !== undefined) {
-    add('ratedArmatureVoltage', { value: np.armatureVoltage, unit: 'V', measured: readings.armatureVoltage, formula: 'nameplate' });
+    add('ratedArmatureVoltage', {
+      value: np.armatureVoltage,
+      unit: 'V',
+      measured: readings.armatureVoltage,
+      formula: 'nameplate',
+      ...(machine.drive === 'controlled-converter' ? { band: CONVERTER_ARMATURE_VOLTAGE_BAND } : {}),
+    });
   }
   if (readings.supplyVoltage !== undefined && readings.armatureVoltage !== undefined && readings.supplyVoltage > 0) {
     add('cableDrop', { value: readings.supplyVoltage, unit: 'V', measured: readings.armatureVoltage, formula: 'supply-end voltage against machine-terminal voltage' });

@@ -77,6 +77,8 @@ export interface MachineData {
   magnetization?: Magnetization | undefined;
   /** Total brush contact drop, V. */
   brushDrop?: number | undefined;
+  /** What feeds the armature: a controlled converter sets its voltage for the speed asked. */
+  drive?: 'fixed-supply' | 'controlled-converter' | 'unknown' | undefined;
 }
 
 export interface Readings {

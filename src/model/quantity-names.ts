@@ -40,7 +40,12 @@ export const QUANTITY_NAMES = Object.keys(QUANTITY_LABELS) as QuantityName[];
  * these are flagged in a readings table; the rest are references or derived values. A 10 %
  * band on expectations is common practice; limits flag on their wrong side only.
  */
-export const HEALTHY_BANDS: Partial<Record<QuantityName, { low?: number; high?: number }>> = {
+export interface HealthyBand {
+  low?: number;
+  high?: number;
+}
+
+export const HEALTHY_BANDS: Partial<Record<QuantityName, HealthyBand>> = {
   fieldCurrent: { low: 0.9, high: 1.1 },
   speed: { low: 0.9, high: 1.1 },
   ratedArmatureVoltage: { low: 0.9, high: 1.06 },
@@ -57,8 +62,14 @@ export const HEALTHY_BANDS: Partial<Record<QuantityName, { low?: number; high?: 
   noLoadCurrent: { high: 1 },
 };
 
-export function outOfBand(name: QuantityName, ratio: number | null): boolean {
-  const band = HEALTHY_BANDS[name];
+/**
+ * A controlled converter sets the armature voltage for the speed it is asked for, so below the
+ * plate is normal there (common practice): only above the rating is out of band.
+ */
+export const CONVERTER_ARMATURE_VOLTAGE_BAND: HealthyBand = { high: 1.06 };
+
+/** `band` is the machine's own band where the model gives one (see Quantity.band). */
+export function outOfBand(name: QuantityName, ratio: number | null, band: HealthyBand | undefined = HEALTHY_BANDS[name]): boolean {
   if (!band || ratio === null) return false;
   return (band.low !== undefined && ratio < band.low) || (band.high !== undefined && ratio > band.high);
 }

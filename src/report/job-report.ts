@@ -96,7 +96,7 @@ export function jobReport(r: ReportInput): string {
   if (readings.length) {
     lines.push('| Reading | Measured | Expected | Ratio | |', '|---|---:|---:|---:|---|');
     for (const [name, q] of readings) {
-      lines.push(`| ${QUANTITY_LABELS[name as QuantityName]} | ${withUnit(q.measured!, q.unit)} | ${withUnit(q.value, q.unit)}${q.basis === 'estimated' ? ' (estimate)' : ''} | ${q.ratio === null ? '' : `${Math.round(q.ratio * 100)} %`} | ${outOfBand(name as QuantityName, q.ratio) ? 'outside the healthy band' : ''} |`);
+      lines.push(`| ${QUANTITY_LABELS[name as QuantityName]} | ${withUnit(q.measured!, q.unit)} | ${withUnit(q.value, q.unit)}${q.basis === 'estimated' ? ' (estimate)' : ''} | ${q.ratio === null ? '' : `${Math.round(q.ratio * 100)} %`} | ${outOfBand(name as QuantityName, q.ratio, q.band) ? 'outside the healthy band' : ''} |`);
     }
   } else lines.push('No readings were taken that the model could set against a healthy machine.');
   lines.push('');

@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { computeExpectations, type ModelInput } from '../../src/model/expected.js';
 import { froehlichFlux, fluxPerUnit } from '../../src/model/magnetization.js';
 import { quantityOf, shuntMachine } from '../support/model.js';
+import { outOfBand } from '../../src/model/quantity-names.js';
 
 // Kosow, Electric Machinery and Transformers, 2nd ed., Example 4-8: 120 V shunt motor, Ra 0.2 Ω,
 // Rsh 60 Ω, line current 40 A at 1800 rpm, brush drop 3 V.
@@ -177,5 +178,24 @@ describe('findings from the readings', () => {
     const e = computeExpectations({ machine: { ...machine, tachoVoltsPer1000Rpm: 60 }, readings: { speed: 1000, tachoVoltage: -59 } });
     expect(e.quantities.tachoVoltage).toMatchObject({ value: 60, measured: -59 });
     expect(e.findings.map((f) => f.code)).toContain('tacho-polarity-reversed');
+  });
+});
+
+describe('the healthy band of the armature voltage', () => {
+  // Common practice: a converter sets the armature voltage for the speed it is asked for.
+  const machine = { connection: 'separately-excited' as const, nameplate: { armatureVoltage: 440, armatureCurrent: 52, speed: 1750, power: 20000 } };
+  const flagged = (drive: 'fixed-supply' | 'controlled-converter', volts: number) => {
+    const q = computeExpectations({ machine: { ...machine, drive }, readings: { armatureVoltage: volts } }).quantities.ratedArmatureVoltage!;
+    return outOfBand('ratedArmatureVoltage', q.ratio, q.band);
+  };
+
+  it('flags a voltage below the plate on a fixed supply only', () => {
+    expect(flagged('fixed-supply', 300)).toBe(true);
+    expect(flagged('controlled-converter', 300)).toBe(false);
+  });
+
+  it('flags a voltage above the rating on either', () => {
+    expect(flagged('fixed-supply', 480)).toBe(true);
+    expect(flagged('controlled-converter', 480)).toBe(true);
   });
 });
