@@ -25,6 +25,13 @@ describe('no code from data', () => {
     expect(offenders).toEqual([]);
   });
 
+  it('compiles no code but its own bundle: node:vm is used in the launcher alone, on a path fixed beside it', () => {
+    const users = files(join(ROOT, 'src'), /\.tsx?$/).filter((f) => /from ['"](node:)?vm['"]/.test(readFileSync(f, 'utf8')));
+    expect(users.map((f) => f.slice(ROOT.length))).toEqual(['src/launch/compiled-bundle.ts']);
+    const bin = readFileSync(join(ROOT, 'src', 'bin.ts'), 'utf8');
+    expect(bin).toContain("runBundle(here('./core.cjs'), here('./core.cjs.cache'))");
+  });
+
   it('the data folders hold plain JSON with no script-like strings', () => {
     const offenders: string[] = [];
     for (const dir of ['rules', 'cases']) {
