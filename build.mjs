@@ -6,10 +6,16 @@ import { build } from 'esbuild';
 import { spawnSync } from 'node:child_process';
 import { chmodSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 
+// Every path below is the project's: build from here whatever the caller's folder (esbuild is
+// told too, as it takes its folder when it is imported).
+const root = dirname(fileURLToPath(import.meta.url));
+process.chdir(root);
 const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8'));
 const common = {
+  absWorkingDir: root,
   bundle: true,
   platform: 'node',
   target: 'node20',

@@ -6,7 +6,7 @@
 import { writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { codeCacheBytes, runBundle } from '../src/launch/compiled-bundle.js';
-import type { runCli as RunCli } from '../src/main.js';
+import type { Install, runCli as RunCli } from '../src/main.js';
 
 const [bundleFile, outFile, demo] = process.argv.slice(2);
 if (!bundleFile || !outFile || !demo) {
@@ -20,7 +20,7 @@ if (!bundle || typeof bundle.exports.runCli !== 'function') {
 }
 const runCli = bundle.exports.runCli as typeof RunCli;
 // The build runs this from the package folder.
-const install = {
+const install: Install = {
   rules: resolve('rules'),
   cases: resolve('cases'),
   ruleSeal: resolve('dist', 'rules.seal.json'),

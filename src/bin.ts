@@ -20,6 +20,8 @@ const install: Install = {
 };
 const argv = process.argv.slice(2);
 
+// Both builds run the same shell (main.tsx); opensDialogue only picks the faster one for the
+// arguments, so if it and main's own reading ever disagreed, the result would be the same.
 async function pickRunCli(): Promise<typeof RunCli> {
   if (!opensDialogue(argv)) {
     const core = runBundle(here('./core.cjs'), here('./core.cjs.cache'));

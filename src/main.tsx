@@ -8,46 +8,31 @@ import { computeExpectations } from './model/expected.js';
 import { loadCaseFile, modelInput } from './knowledge/load-case.js';
 import { loadRuleBase, type RuleBase } from './knowledge/load-rules.js';
 import { readRuleSeal, type RuleSeal } from './knowledge/rule-seal.js';
-import { formatIssues, type Issue } from './knowledge/result.js';
+import { formatIssues, ok, type Issue, type Result } from './knowledge/result.js';
+import { readJson, readValidated, validate } from './knowledge/read-json.js';
+import { caseSchema, machineSchema } from './knowledge/case-schema.js';
+import { safetyFile } from './knowledge/rulebase-schema.js';
 import { diagnose } from './engine/diagnose.js';
 import { buildEngine, RuleCycleError } from './engine/run-rules.js';
 import { checkCases, type CaseRunner } from './engine/check-cases.js';
-import { buildFlow } from './dialogue/flow.js';
+import { buildFlow, type Flow } from './dialogue/flow.js';
 import { replayCase } from './dialogue/replay.js';
-import { readJson } from './knowledge/read-json.js';
-import { caseSchema, machineSchema } from './knowledge/case-schema.js';
-import { readValidated, validate } from './knowledge/read-json.js';
-import { ok, type Result } from './knowledge/result.js';
-import { jobFromAnswers, type Answer } from './dialogue/job.js';
+import { jobFromAnswers, parseDraft, type Answer } from './dialogue/job.js';
+import { outcomeOf } from './dialogue/outcome.js';
+import { ROLES, type Role } from './dialogue/work.js';
+import type { DialogueState } from './dialogue/reducer.js';
 import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Session } from './shell/session.js';
 import { writeNewFile } from './shell/safe-write.js';
 import { fileCase } from './shell/file-case.js';
-import { outcomeOf } from './dialogue/outcome.js';
 import { writeReport } from './shell/write-report.js';
 import { chartText } from './shell/chart-text.js';
-import { readSettings } from './shell/settings.js';
-import { ROLES, type Role } from './dialogue/work.js';
-import { parseDraft } from './dialogue/job.js';
-import type { DialogueState } from './dialogue/reducer.js';
-import type { Flow } from './dialogue/flow.js';
-
-/** --machine takes a machine object, or a whole case file whose machine is used; the raw machine is kept as typed. */
-function readMachineFile(file: string): Result<unknown> {
-  const raw = readJson(file);
-  if (!raw.ok) return raw;
-  const v = raw.value;
-  if (v !== null && typeof v === 'object' && 'format' in v) {
-    const c = validate(file, v, caseSchema);
-    return c.ok ? ok((v as Record<string, unknown>).machine) : c;
-  }
-  const m = validate(file, v, machineSchema);
-  return m.ok ? ok(v) : m;
-}
+import { readSettings, resolveKnowledge } from './shell/settings.js';
 import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
 import { USAGE } from './shell/help.js';
-import { safetyFile } from './knowledge/rulebase-schema.js';
+import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
+import { parseCommandLine } from './shell/cli-options.js';
 import type { Prepared } from './ui/run-dialogue.js';
 
 /** Loads the dialogue's screens (Ink, React): given by the launcher, so this module never imports them. */
@@ -62,12 +47,22 @@ export interface Install {
   ruleSeal: string;
   loadScreens: ScreensLoader;
 }
-import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
-import { resolveKnowledge } from './shell/settings.js';
-import { parseCommandLine } from './shell/cli-options.js';
 
-/** Set once by runCli. */
+/** --machine takes a machine object, or a whole case file whose machine is used; the raw machine is kept as typed. */
+function readMachineFile(file: string): Result<unknown> {
+  const raw = readJson(file);
+  if (!raw.ok) return raw;
+  const v = raw.value;
+  if (v !== null && typeof v === 'object' && 'format' in v) {
+    const c = validate(file, v, caseSchema);
+    return c.ok ? ok((v as Record<string, unknown>).machine) : c;
+  }
+  const m = validate(file, v, machineSchema);
+  return m.ok ? ok(v) : m;
+}
+/** Set by runCli; one process runs one command line. */
 let install: Install;
+/** The seal, read on first use: null until then, undefined when there is none. */
 let ruleSeal: RuleSeal | undefined | null = null;
 
 /** A rule folder, with the files the build proved valid taken as read (see rule-seal.ts). */
@@ -94,7 +89,7 @@ async function main(argv: string[]): Promise<number> {
   try {
     parsed = parseCommandLine(argv);
   } catch (e) {
-    throw new UsageError((e as Error).message);
+    throw new UsageError(optionProblem(e as NodeJS.ErrnoException));
   }
   const { values: opts, positionals } = parsed;
   if (opts.help) return out(USAGE), 0;
@@ -155,6 +150,7 @@ async function main(argv: string[]): Promise<number> {
       if (rest[0] !== 'check') throw new UsageError('cases takes a subcommand: dctriage cases check [DIR] | dctriage cases add FILE');
       return casesCheck(rest[1], opts);
     case 'rules': {
+      if (!['check', 'draft', 'adopt'].includes(rest[0] ?? '')) throw new UsageError('rules takes a subcommand: check, draft --from-case FILE, adopt DRAFT');
       const k = knowledge(opts, rest[0] === 'check');
       if (!k.ok) return fail(k.issues);
       if (rest[0] === 'check') return print(await checkRules(k.value.rules, k.value.cases, !!opts.json));
@@ -168,7 +164,7 @@ async function main(argv: string[]): Promise<number> {
         if (!rest[1]) throw new UsageError('rules adopt needs a draft file: dctriage rules adopt DRAFT');
         return print(await adoptDraft(rest[1], k.value.rules, k.value.cases, base.value, !!opts.force));
       }
-      throw new UsageError('rules takes a subcommand: check, draft --from-case FILE, adopt DRAFT');
+      throw new UsageError(`rules ${rest[0]} is not a subcommand`);
     }
     case 'review': {
       if (!rest[0]) throw new UsageError('review needs a saved job: dctriage review FILE [--close NAME]');
@@ -348,17 +344,31 @@ function causeIdsOf(base: RuleBase): Set<string> {
   return new Set(base.causes.map((c) => c.id));
 }
 
+/** Node's message for a bad option, in a line of our own. */
+function optionProblem(e: NodeJS.ErrnoException): string {
+  const unknown = e.code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION' ? /Unknown option '([^']*)'/.exec(e.message) : null;
+  return unknown ? `unknown option ${unknown[1]}` : e.message;
+}
+
+let watchingStdout = false;
+/** Once per process: a reader that stops early (dctriage … | head) is not an error; another write failure is one line. */
+function watchStdout(): void {
+  if (watchingStdout) return;
+  watchingStdout = true;
+  process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    process.stderr.write(`dctriage: cannot write the output: ${e.message}\n`);
+    process.exit(74);
+  });
+}
+
 /**
  * Runs one command line and sets the exit code. The launcher (bin.ts) calls this from either
  * build; it loads nothing of the screens unless the dialogue opens.
  */
 export async function runCli(argv: string[], from: Install): Promise<void> {
   install = from;
-  // A reader that stops early (dctriage … | head) is not an error.
-  process.stdout.on('error', (e: NodeJS.ErrnoException) => {
-    if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
-    throw e;
-  });
+  watchStdout();
   try {
     process.exitCode = await main(argv);
   } catch (e) {

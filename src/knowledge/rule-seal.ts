@@ -1,7 +1,7 @@
 /**
  * A record of rule files already proved valid. The build validates the built-in rule folder with
  * the full schemas and writes down, for each file, the schema it passed and the SHA-256 of its
- * bytes. At run time a file whose bytes hash to a recorded digest has passed that very schema, so
+ * text. At run time a file whose text hashes to a recorded digest has passed that very schema, so
  * it is used as parsed JSON without a second pass; any other file, and any file once edited, is
  * validated in full. The cross-references between files are always checked again.
  *

@@ -15,8 +15,10 @@ import { dirname, resolve } from 'node:path';
 import { Script } from 'node:vm';
 
 const DIGEST_BYTES = 32;
-/** Part of the digest: a cache made for another wrapper around the same bundle is refused. */
-const WRAPPER_VERSION = 'cjs-wrapper/1\n';
+// The same wrapper node puts around a CommonJS module. It is part of the digest, so a cache
+// made for another wrapper around the same bundle is refused.
+const WRAPPER_HEAD = '(function (exports, require, module, __filename, __dirname) {';
+const WRAPPER_TAIL = '\n})';
 
 export interface CompiledBundle {
   exports: Record<string, unknown>;
@@ -26,7 +28,11 @@ export interface CompiledBundle {
   cacheUsed: boolean;
 }
 
-/** The bundle's exports, or undefined when the bundle cannot be read (running from source). */
+/**
+ * The bundle's exports, or undefined when the bundle cannot be read (running from source) or
+ * does not compile and load (cut short by a full disk or an interrupted build): the launcher
+ * then runs the ES module build instead.
+ */
 export function runBundle(bundleFile: string, cacheFile: string | undefined): CompiledBundle | undefined {
   const file = resolve(bundleFile);
   let bytes: Buffer;
@@ -36,15 +42,17 @@ export function runBundle(bundleFile: string, cacheFile: string | undefined): Co
     return undefined;
   }
   // Hashing the bytes is a quarter of the cost of hashing the decoded text.
-  const digest = createHash('sha256').update(WRAPPER_VERSION).update(bytes).digest();
-  // The same wrapper node puts around a CommonJS module.
-  const wrapped = `(function (exports, require, module, __filename, __dirname) {${bytes.toString('utf8')}\n})`;
+  const digest = createHash('sha256').update(WRAPPER_HEAD).update(WRAPPER_TAIL).update(bytes).digest();
   const cachedData = cacheFile ? cacheFor(cacheFile, digest) : undefined;
-  const script = new Script(wrapped, { filename: file, ...(cachedData ? { cachedData } : {}) });
-  const module = { exports: {} as Record<string, unknown> };
-  const init = script.runInThisContext() as (e: unknown, r: NodeJS.Require, m: unknown, f: string, d: string) => void;
-  init(module.exports, createRequire(file), module, file, dirname(file));
-  return { exports: module.exports, script, digest, cacheUsed: cachedData !== undefined && !script.cachedDataRejected };
+  try {
+    const script = new Script(WRAPPER_HEAD + bytes.toString('utf8') + WRAPPER_TAIL, { filename: file, ...(cachedData ? { cachedData } : {}) });
+    const module = { exports: {} as Record<string, unknown> };
+    const init = script.runInThisContext() as (e: unknown, r: NodeJS.Require, m: unknown, f: string, d: string) => void;
+    init(module.exports, createRequire(file), module, file, dirname(file));
+    return { exports: module.exports, script, digest, cacheUsed: cachedData !== undefined && !script.cachedDataRejected };
+  } catch {
+    return undefined;
+  }
 }
 
 /** The cache as written by writeCodeCache: the source's digest, then V8's data. */

@@ -35,6 +35,8 @@ Without --rules/--cases, writing commands use DCTRIAGE_KNOWLEDGE, the "knowledge
 folder of ~/.config/dctriage/settings.json, or rules/ and cases/ of a checkout.
 
 FILE is a dc-case/1 JSON file (schema: schemas/dc-case-1.schema.json).
-Exit codes: 0 done, 1 findings (cases check: a case outside its top 3), 2 bad input.
+Exit codes: 0 done, 1 findings (cases check: a case outside its top 3), 2 bad input,
+70 internal error, 74 output could not be written; the dialogue also ends with
+130 on Ctrl-C, 143 on SIGTERM, 129 when its terminal closes (the session is kept).
 
 ${SAFETY_NOTICE}`;

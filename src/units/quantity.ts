@@ -64,10 +64,11 @@ const unitFactories = {
 let instance: ReturnType<typeof create> | undefined;
 function math(): ReturnType<typeof create> {
   if (!instance) {
-    instance = create(unitFactories, { number: 'number' });
+    const made = create(unitFactories, { number: 'number' });
     // rpm as revolutions per minute, 1/time, so it converts to Hz (rev/s) as well.
-    instance.createUnit('rpm', '1 / min');
-    instance.createUnit('megohm', '1 Mohm');
+    made.createUnit('rpm', '1 / min');
+    made.createUnit('megohm', '1 Mohm');
+    instance = made;
   }
   return instance;
 }

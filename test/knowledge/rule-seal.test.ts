@@ -1,10 +1,12 @@
-import { readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { cpSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { isDeepStrictEqual } from 'node:util';
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { loadCase } from '../../src/knowledge/load-case.js';
 import { loadRuleBase, sealRuleFolder } from '../../src/knowledge/load-rules.js';
-import { readRuleSeal, sealToJson, type RuleSeal } from '../../src/knowledge/rule-seal.js';
+import { readRuleSeal, sealKey, sealToJson, type RuleSeal } from '../../src/knowledge/rule-seal.js';
 import { diagnose } from '../../src/engine/diagnose.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
 import { CASES_DIR, copyOfRules, RULES_DIR } from '../support/rules.js';
@@ -16,9 +18,13 @@ function builtInSeal(): RuleSeal {
   return new Set(keys.value);
 }
 
+const made: string[] = [];
+afterAll(() => made.forEach((d) => rmSync(d, { recursive: true, force: true })));
+
 /** A copy of the built-in rules with one rule's weight out of range in field.json. */
 function copyWithAnEditedRule(): { dir: string; file: string } {
   const dir = copyOfRules();
+  made.push(dir);
   const file = join(dir, 'field.json');
   const doc = JSON.parse(readFileSync(file, 'utf8'));
   doc.rules[0].weight = 7;
@@ -66,6 +72,7 @@ describe('the rule seal', () => {
 
   it('vouches for contents under the schema they passed, not under another file name', () => {
     const dir = copyOfRules();
+    made.push(dir);
     // A valid rule file saved as the cause catalogue is still refused.
     writeFileSync(join(dir, 'causes.json'), readFileSync(join(dir, 'field.json')));
     const loaded = loadRuleBase(dir, { seal: builtInSeal() });
@@ -75,6 +82,7 @@ describe('the rule seal', () => {
 
   it('is ignored when missing or malformed, so every file is validated', () => {
     const dir = copyOfRules();
+    made.push(dir);
     expect(readRuleSeal(join(dir, 'no-such.seal.json'))).toBeUndefined();
     for (const text of ['not json', '{"format":"dctriage-rule-seal/1","passed":["x"]}', '{"format":"other","passed":[]}']) {
       writeFileSync(join(dir, 'bad.seal'), text);
@@ -91,5 +99,25 @@ describe('the rule seal', () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toContain(`${file}: at rules[0].weight`);
     expect(r.stdout).toBe('');
+  });
+
+  it('is what the built CLI reads: a seal that vouches for a file is trusted without validating it', () => {
+    // An install of our own, whose seal vouches for an out-of-range weight no schema would pass:
+    // the CLI then loads it, which shows the seal beside the launcher is read and used.
+    const install = mkdtempSync(join(tmpdir(), 'dctriage-install-'));
+    made.push(install);
+    for (const d of ['dist', 'rules', 'cases']) cpSync(join(ROOT, d), join(install, d), { recursive: true });
+    const file = join(install, 'rules', 'field.json');
+    const doc = JSON.parse(readFileSync(file, 'utf8'));
+    doc.rules[0].weight = 7;
+    writeFileSync(file, JSON.stringify(doc, null, 2));
+    const someCase = join(CASES_DIR, readdirSync(CASES_DIR).find((f) => f.endsWith('.json'))!);
+    // From a neutral folder, so the install's own rules are the ones in use, not a checkout's.
+    const run = () => spawnSync(process.execPath, [join(install, 'dist', 'cli.mjs'), 'diagnose', someCase, '--json'], { encoding: 'utf8', cwd: tmpdir(), env: { ...process.env, DCTRIAGE_KNOWLEDGE: '' } });
+    expect(run().status).toBe(2);
+    writeFileSync(join(install, 'dist', 'rules.seal.json'), sealToJson([...builtInSeal(), sealKey('rule-file', readFileSync(file, 'utf8'))]));
+    const vouched = run();
+    expect(vouched.stderr).toBe('');
+    expect(vouched.status).toBe(0);
   });
 });

@@ -12,7 +12,11 @@ describe('withoutFetch', () => {
   });
 
   it('lets yoga-layout load its layout engine without fetch', async () => {
-    const yoga = await withoutFetch(() => import('yoga-layout'));
+    const yoga = await withoutFetch(() => {
+      // yoga-layout is first imported here, so it loads its WebAssembly with no fetch to use.
+      expect(typeof globalThis.fetch).toBe('undefined');
+      return import('yoga-layout');
+    });
     const node = yoga.default.Node.create();
     node.setWidth(12);
     node.calculateLayout(undefined, undefined);

@@ -47,8 +47,12 @@ export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: 
   /** Types a line and presses Enter, then waits for the dialogue (and its diagnosis) to settle. */
   const type = async (line: string) => {
     await settled(0);
-    app.stdin.write(line);
-    await settle();
+    if (line !== '') {
+      // The typed text is drawn before Enter, so that frame is not taken for the answer's.
+      const beforeText = app.frames.length;
+      app.stdin.write(line);
+      await settled(beforeText);
+    }
     const before = app.frames.length;
     app.stdin.write('\r');
     await settled(before);
