@@ -4,7 +4,7 @@
  * measure. Prints a table of medians. Not a test: nothing here fails on a slow machine.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { cpSync, mkdtempSync, readdirSync, readFileSync, writeFileSync, mkdirSync } from 'node:fs';
+import { cpSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -79,3 +79,6 @@ const pad = (s, n) => String(s).padEnd(n);
 console.log(`dctriage bench (${runs} runs each, medians; node ${process.version}, ${new Date().toISOString()})\n`);
 console.log(`${pad('what', 64)}${pad('ms', 10)}${pad('× bare', 9)}note`);
 for (const [what, ms, ratio, note] of rows) console.log(`${pad(what, 64)}${pad(ms.toFixed(1), 10)}${pad(ratio === null ? '' : ratio.toFixed(2), 9)}${note}`);
+
+// The generated rule base, cases and dialogue state are only for this run.
+for (const dir of [state, big, many]) rmSync(dir, { recursive: true, force: true });
