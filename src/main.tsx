@@ -130,7 +130,7 @@ async function main(argv: string[]): Promise<number> {
       }
       if (opts.report !== undefined) {
         try {
-          const where = await writeReport(opts.report, { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString() }, process.cwd());
+          const where = await writeReport(opts.report, { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd());
           process.stderr.write(`Job report written to ${where}\n`);
         } catch (e) {
           return fail([{ code: 'unreadable', file: opts.report, path: '', message: `could not write the report: ${(e as Error).message}` }]);
@@ -172,7 +172,7 @@ async function main(argv: string[]): Promise<number> {
       if (!k.ok) return fail(k.issues);
       const base = loadRules(k.value.rules);
       if (!base.ok) return fail(base.issues);
-      return print(await reviewJob(rest[0], base.value, opts.close, new Date().toISOString()));
+      return print(await reviewJob(rest[0], base.value, opts.close, new Date().toISOString(), localTimeZone()));
     }
     case undefined:
     case 'resume':
@@ -309,6 +309,8 @@ function saveJob(draft: unknown): string {
 }
 
 const today = () => new Date().toISOString().slice(0, 10);
+/** This machine's time zone (TZ, else the system's), for the times in a report. */
+const localTimeZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone;
 const terminalWidth = () => process.stdout.columns ?? 80;
 /** Colour only on a terminal, and never with NO_COLOR; the chart itself is drawn either way. */
 const useColor = () => !process.env.NO_COLOR && process.stdout.isTTY === true;
@@ -320,7 +322,7 @@ async function reportFromDialogue(state: DialogueState, flow: Flow, machineFile:
   const result = [...state.log].reverse().find((e) => e.kind === 'result');
   if (!parsed.ok || !result || result.kind !== 'result') return 'No report yet: the result is not on screen.';
   try {
-    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result.diagnosis, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString() }, process.cwd());
+    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result.diagnosis, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd());
     return `Job report written to ${where}`;
   } catch (e) {
     return `Could not write the report: ${(e as Error).message}. The session is kept.`;

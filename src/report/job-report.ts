@@ -9,6 +9,7 @@ import { CONNECTION_TRAITS } from '../model/machine.js';
 import { outOfBand, QUANTITY_LABELS, type QuantityName } from '../model/quantity-names.js';
 import { OBSERVATIONS, SYMPTOMS, type ObservationName } from '../knowledge/vocabulary.js';
 import type { Role, WorkEntry } from '../dialogue/work.js';
+import { clockTime } from './clock-time.js';
 
 export interface ReportInput {
   job: CaseFile;
@@ -19,6 +20,8 @@ export interface ReportInput {
   work?: readonly WorkEntry[];
   role?: Role;
   generatedAt: string;
+  /** The IANA time zone where the job was done, for its times; UTC when not given. */
+  timeZone?: string;
   /** Where an SVG of the characteristic sits beside the report, when there is one. */
   chartFile?: string;
 }
@@ -29,14 +32,13 @@ const withUnit = (x: number, u: string) => `${n(x)}${UNIT[u] === '' ? '' : ` ${U
 /** Text people typed: no HTML gets through to the HTML report, no table breaks. */
 const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
 const cell = (s: string) => esc(s).replace(/\|/g, '\\|').replace(/\n/g, ' ');
-/** An ISO time as people read it on paper: "2026-12-01 21:09 UTC"; other text as it was given. */
-const when = (iso: string) => (/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/.test(iso) && iso.endsWith('Z') ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : iso);
 /** A sentence ends with one full stop, even after initials ("P.R."). */
 const sentence = (text: string) => (text.endsWith('.') ? text : `${text}.`);
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'live test (qualified person)', isolated: 'isolated (after isolation and lockout)' } as const;
 
 export function jobReport(r: ReportInput): string {
   const { job, diagnosis: d } = r;
+  const when = (iso: string) => clockTime(iso, r.timeZone);
   const j = job.job ?? {};
   // Isolation recorded while working the checks stands in for the job file's, when that has none.
   const recorded = r.work?.find((w) => w.isolation)?.isolation;

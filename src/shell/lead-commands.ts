@@ -48,12 +48,12 @@ export function addCase(file: string, casesDir: string, base: RuleBase, today: s
 }
 
 /** A lead's review of a saved job: its report on stdout, and with `closeBy` the job marked closed. */
-export async function reviewJob(file: string, base: RuleBase, closeBy: string | undefined, now: string): Promise<Outcome> {
+export async function reviewJob(file: string, base: RuleBase, closeBy: string | undefined, now: string, timeZone?: string): Promise<Outcome> {
   const c = loadCaseFile(file, new Set(base.causes.map((x) => x.id)));
   if (!c.ok) return bad(c.issues);
   const { job: parsed, raw } = c.value;
   const d = await diagnose(parsed, base, buildEngine(base));
-  const text = jobReport({ job: parsed, raw, diagnosis: d, safety: base.safety, generatedAt: now });
+  const text = jobReport({ job: parsed, raw, diagnosis: d, safety: base.safety, generatedAt: now, ...(timeZone ? { timeZone } : {}) });
   if (closeBy === undefined) return { code: 0, out: text };
   if (closeBy.trim() === '') return bad([{ code: 'invalid', file, path: 'job.closedBy', message: 'name who closes the job: --close NAME' }]);
   try {

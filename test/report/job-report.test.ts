@@ -12,12 +12,12 @@ import { builtInRules, CASES_DIR, diagnoseJob } from '../support/rules.js';
 const base = builtInRules();
 const engine = buildEngine(base);
 
-async function reportFor(name: string, work: WorkEntry[] = []) {
+async function reportFor(name: string, work: WorkEntry[] = [], timeZone?: string) {
   const file = join(CASES_DIR, name);
   const c = loadCase(file);
   if (!c.ok) throw new Error(name);
   const d = await diagnose(c.value, base, engine);
-  return { d, text: jobReport({ job: c.value, raw: JSON.parse(readFileSync(file, 'utf8')), diagnosis: d, safety: base.safety, work, generatedAt: '2026-12-01T21:00:00Z' }) };
+  return { d, text: jobReport({ job: c.value, raw: JSON.parse(readFileSync(file, 'utf8')), diagnosis: d, safety: base.safety, work, generatedAt: '2026-12-01T21:00:00Z', ...(timeZone ? { timeZone } : {}) }) };
 }
 
 describe('the job report', () => {
@@ -49,6 +49,10 @@ describe('the job report', () => {
     expect(text).toContain('Started 2026-12-01 21:05 UTC by T. Apprentice, authorised by R. Lead (present).');
     expect(text).toContain('Done 2026-12-01 21:25 UTC by T. Apprentice, signed off by R. Lead. Found: rheostat track burnt.');
     expect(text).toContain('| Proved dead by | R. Lead |');
+    // Where the job was done, the times are local with UTC beside them (IANA: Berlin is UTC+1 in December).
+    const { text: local } = await reportFor('2026-10-14-press-feed-field-weak.json', work, 'Europe/Berlin');
+    expect(local).toContain('Started 2026-12-01 22:05 UTC+1 (21:05 UTC) by T. Apprentice');
+    expect(local).toContain('| Report written | 2026-12-01 22:00 UTC+1 (21:00 UTC) |');
     expect(text).toContain('not verify them');
   });
 
