@@ -9,9 +9,9 @@
  * change with a release. The seal is written by the same build as the schemas it vouches for.
  */
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
 import { isDeepStrictEqual } from 'node:util';
 import * as z from 'zod';
+import { readValidated } from './read-json.js';
 
 export const RULE_SEAL_FORMAT = 'dctriage-rule-seal/1';
 
@@ -47,16 +47,6 @@ export function sealToJson(keys: Iterable<string>): string {
  * error: every file is then validated in full, as when running from source.
  */
 export function readRuleSeal(file: string): RuleSeal | undefined {
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch {
-    return undefined;
-  }
-  try {
-    const parsed = sealFile.safeParse(JSON.parse(text));
-    return parsed.success ? new Set(parsed.data.passed) : undefined;
-  } catch {
-    return undefined;
-  }
+  const read = readValidated(file, sealFile);
+  return read.ok ? new Set(read.value.passed) : undefined;
 }

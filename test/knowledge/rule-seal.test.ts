@@ -1,16 +1,16 @@
-import { cpSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { isDeepStrictEqual } from 'node:util';
-import { afterAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { loadCase } from '../../src/knowledge/load-case.js';
 import { loadRuleBase, sealRuleFolder } from '../../src/knowledge/load-rules.js';
 import { readRuleSeal, sealKey, sealToJson, type RuleSeal } from '../../src/knowledge/rule-seal.js';
 import { diagnose } from '../../src/engine/diagnose.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
 import { CASES_DIR, copyOfRules, RULES_DIR } from '../support/rules.js';
-import { ROOT, runCli } from '../support/cli.js';
+import { installCopy, ROOT, runCli } from '../support/cli.js';
 
 function builtInSeal(): RuleSeal {
   const keys = sealRuleFolder(RULES_DIR);
@@ -18,13 +18,9 @@ function builtInSeal(): RuleSeal {
   return new Set(keys.value);
 }
 
-const made: string[] = [];
-afterAll(() => made.forEach((d) => rmSync(d, { recursive: true, force: true })));
-
 /** A copy of the built-in rules with one rule's weight out of range in field.json. */
 function copyWithAnEditedRule(): { dir: string; file: string } {
   const dir = copyOfRules();
-  made.push(dir);
   const file = join(dir, 'field.json');
   const doc = JSON.parse(readFileSync(file, 'utf8'));
   doc.rules[0].weight = 7;
@@ -72,8 +68,7 @@ describe('the rule seal', () => {
 
   it('vouches for contents under the schema they passed, not under another file name', () => {
     const dir = copyOfRules();
-    made.push(dir);
-    // A valid rule file saved as the cause catalogue is still refused.
+      // A valid rule file saved as the cause catalogue is still refused.
     writeFileSync(join(dir, 'causes.json'), readFileSync(join(dir, 'field.json')));
     const loaded = loadRuleBase(dir, { seal: builtInSeal() });
     expect(loaded.ok).toBe(false);
@@ -82,8 +77,7 @@ describe('the rule seal', () => {
 
   it('is ignored when missing or malformed, so every file is validated', () => {
     const dir = copyOfRules();
-    made.push(dir);
-    expect(readRuleSeal(join(dir, 'no-such.seal.json'))).toBeUndefined();
+      expect(readRuleSeal(join(dir, 'no-such.seal.json'))).toBeUndefined();
     for (const text of ['not json', '{"format":"dctriage-rule-seal/1","passed":["x"]}', '{"format":"other","passed":[]}']) {
       writeFileSync(join(dir, 'bad.seal'), text);
       expect(readRuleSeal(join(dir, 'bad.seal')), text).toBeUndefined();
@@ -104,9 +98,7 @@ describe('the rule seal', () => {
   it('is what the built CLI reads: a seal that vouches for a file is trusted without validating it', () => {
     // An install of our own, whose seal vouches for an out-of-range weight no schema would pass:
     // the CLI then loads it, which shows the seal beside the launcher is read and used.
-    const install = mkdtempSync(join(tmpdir(), 'dctriage-install-'));
-    made.push(install);
-    for (const d of ['dist', 'rules', 'cases']) cpSync(join(ROOT, d), join(install, d), { recursive: true });
+    const install = installCopy();
     const file = join(install, 'rules', 'field.json');
     const doc = JSON.parse(readFileSync(file, 'utf8'));
     doc.rules[0].weight = 7;

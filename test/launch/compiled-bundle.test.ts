@@ -1,51 +1,47 @@
-import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
-import { afterAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { runBundle } from '../../src/launch/compiled-bundle.js';
-import { ROOT, runCli } from '../support/cli.js';
+import { installCopy, ROOT, runCli } from '../support/cli.js';
 
 const answer = (n: number) => `module.exports.answer = function () { return ${n}; }; module.exports.answer();\n`;
 
-const made: string[] = [];
-afterAll(() => made.forEach((d) => rmSync(d, { recursive: true, force: true })));
-const tempDir = (prefix: string) => {
-  const dir = mkdtempSync(join(tmpdir(), prefix));
-  made.push(dir);
-  return dir;
-};
-
 /** A one-function bundle in a fresh folder. */
 function bundleAnswering(n: number): { dir: string; file: string } {
-  const dir = tempDir('dctriage-bundle-');
+  const dir = mkdtempSync(join(tmpdir(), 'dctriage-bundle-'));
   const file = join(dir, 'b.cjs');
   writeFileSync(file, answer(n));
   return { dir, file };
 }
+
+/** Runs module code in a fresh node with TypeScript sources importable, and gives its stdout. */
+function inFreshNode(code: string): string {
+  const r = spawnSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', code], { cwd: ROOT, encoding: 'utf8' });
+  if (r.status !== 0) throw new Error(r.stderr);
+  return r.stdout;
+}
+const LOADER = JSON.stringify(join(ROOT, 'src/launch/compiled-bundle.ts'));
 
 /**
  * Runs the bundle in a fresh node, as the launcher does: within one process V8 reuses what it
  * compiled before and would take any cache for source it has already seen.
  */
 function runFresh(file: string, cacheFile: string | undefined): { cacheUsed: boolean; answer: number } | undefined {
-  const code = `const { runBundle } = await import(${JSON.stringify(join(ROOT, 'src/launch/compiled-bundle.ts'))});
+  const out = inFreshNode(`const { runBundle } = await import(${LOADER});
     const b = runBundle(${JSON.stringify(file)}, ${JSON.stringify(cacheFile)});
-    console.log(JSON.stringify(b ? { cacheUsed: b.cacheUsed, answer: b.exports.answer() } : null));`;
-  const r = spawnSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', code], { cwd: ROOT, encoding: 'utf8' });
-  if (r.status !== 0) throw new Error(r.stderr);
-  return JSON.parse(r.stdout) ?? undefined;
+    console.log(JSON.stringify(b ? { cacheUsed: b.cacheUsed, answer: b.exports.answer() } : null));`);
+  return JSON.parse(out) ?? undefined;
 }
 
 /** A cache for the bundle as it is now, made in a fresh node like the build's. */
 function makeCache(file: string, cacheFile: string): Buffer {
-  const code = `const { runBundle, codeCacheBytes } = await import(${JSON.stringify(join(ROOT, 'src/launch/compiled-bundle.ts'))});
+  inFreshNode(`const { runBundle, codeCacheBytes } = await import(${LOADER});
     const { writeFileSync } = await import('node:fs');
     const b = runBundle(${JSON.stringify(file)}, undefined);
     b.exports.answer();
-    writeFileSync(${JSON.stringify(cacheFile)}, codeCacheBytes(b));`;
-  const r = spawnSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', code], { cwd: ROOT, encoding: 'utf8' });
-  if (r.status !== 0) throw new Error(r.stderr);
+    writeFileSync(${JSON.stringify(cacheFile)}, codeCacheBytes(b));`);
   return readFileSync(cacheFile);
 }
 
@@ -97,11 +93,6 @@ describe('running a bundle with a code cache', () => {
 describe('the launcher', () => {
   const someCase = join(ROOT, 'cases', '2026-10-14-press-feed-field-weak.json');
 
-  const installCopy = () => {
-    const install = tempDir('dctriage-install-');
-    for (const d of ['dist', 'rules', 'cases']) cpSync(join(ROOT, d), join(install, d), { recursive: true });
-    return install;
-  };
   const runInstalled = (install: string) => spawnSync(process.execPath, [join(install, 'dist', 'cli.mjs'), 'diagnose', someCase, '--json'], { encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
 
   it('gives the same answer from the ES module build when the CommonJS bundle is missing or cut short', () => {

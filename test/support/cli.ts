@@ -1,5 +1,8 @@
 /** Runs the built CLI (npm test builds it first) and captures what it printed. */
 import { spawnSync } from 'node:child_process';
+import { cpSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 export const ROOT = fileURLToPath(new URL('../..', import.meta.url));
@@ -19,4 +22,11 @@ export function runCli(args: string[], opts: { cwd?: string; input?: string; env
     env: { ...process.env, NO_COLOR: '1', ...opts.env },
   });
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+/** A copy of the built install (dist, rules, cases) in a temporary folder, to break or rearrange. */
+export function installCopy(): string {
+  const install = mkdtempSync(join(tmpdir(), 'dctriage-install-'));
+  for (const d of ['dist', 'rules', 'cases']) cpSync(join(ROOT, d), join(install, d), { recursive: true });
+  return install;
 }
