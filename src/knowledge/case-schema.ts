@@ -4,7 +4,8 @@
  * by the unit adapter into plain numbers in each field's default unit.
  */
 import * as z from 'zod';
-import { CONNECTIONS, INSULATION_CLASSES, TESTED_WINDINGS } from '../model/machine.js';
+import { CONNECTIONS, INSULATION_CLASSES, INSULATION_SYSTEMS, TESTED_WINDINGS } from '../model/machine.js';
+import { WINDING_MATERIALS } from '../model/resistance.js';
 import { describeQuantityError, DIMENSIONS, parseQuantity, type Dimension } from '../units/quantity.js';
 import { COOLING, DRIVES, FEEDBACK, OBSERVATIONS, OBSERVATION_NAMES, SYMPTOM_IDS, SYMPTOMS, observationValues } from './vocabulary.js';
 
@@ -27,17 +28,30 @@ export function quantity(dimension: Dimension, description: string) {
 
 const safeId = z.string().regex(SAFE_ID, 'expected a safe id: letters, digits, ".", "_" or "-", starting with a letter or digit, at most 80 characters');
 
-const nameplate = z.strictObject({
+/** A drive motor's plate gives base and top speed as "1750/2300 r/min": both fields from one. */
+const BASE_AND_TOP = /^\s*([0-9]+(?:[.,][0-9]+)?)\s*\/\s*([0-9]+(?:[.,][0-9]+)?)\s*(.*)$/;
+function splitBaseAndTopSpeed(raw: unknown): unknown {
+  if (typeof raw !== 'object' || raw === null || !('speed' in raw)) return raw;
+  const plate = raw as Record<string, unknown>;
+  const m = typeof plate.speed === 'string' ? BASE_AND_TOP.exec(plate.speed) : null;
+  if (!m || plate.maxSpeed !== undefined) return raw;
+  const unit = m[3]!.trim();
+  return { ...plate, speed: unit ? `${m[1]} ${unit}` : m[1], maxSpeed: unit ? `${m[2]} ${unit}` : m[2] };
+}
+
+const nameplateFields = z.strictObject({
   armatureVoltage: quantity('voltage', 'rated armature voltage').optional(),
   armatureCurrent: quantity('current', 'rated armature current').optional(),
   lineCurrent: quantity('current', 'rated supply current, armature and shunt field together').optional(),
-  speed: quantity('speed', 'rated (full-load) speed').optional(),
+  speed: quantity('speed', 'rated (full-load) speed, or base and top speed written as "1750/2300 r/min"').optional(),
+  maxSpeed: quantity('speed', 'top of the field-weakening range (drive motors)').optional(),
   noLoadSpeed: quantity('speed', 'no-load speed').optional(),
   power: quantity('power', 'rated output').optional(),
   fieldVoltage: quantity('voltage', 'rated field voltage').optional(),
   fieldCurrent: quantity('current', 'rated (hot) field current').optional(),
   insulationClass: z.enum(INSULATION_CLASSES).optional().meta({ description: 'thermal class (IEC 60085)' }),
 });
+const nameplate = z.preprocess(splitBaseAndTopSpeed, nameplateFields);
 
 const resistances = z.strictObject({
   armature: quantity('resistance', 'armature circuit A1–A2: winding, interpoles and compensating winding, brushes excluded').optional(),
@@ -63,6 +77,8 @@ export const machineSchema = z.strictObject({
   resistances: resistances.optional(),
   magnetization: magnetization.optional(),
   brushDrop: quantity('voltage', 'total brush contact drop').optional(),
+  insulationSystem: z.enum(INSULATION_SYSTEMS).optional().meta({ description: 'thermosetting (epoxy, polyester; the default) or thermoplastic (asphaltic, shellac): IEEE 43-2013 corrects them differently' }),
+  windingMaterial: z.enum(WINDING_MATERIALS).optional().meta({ description: 'copper (the default) or aluminium windings, for resistance against temperature' }),
 });
 
 /** Quantity readings of dc-case/1: the dimension each takes and what it is. */
@@ -72,6 +88,8 @@ export const READING_FIELDS = {
   armatureCurrent: { dimension: 'current', says: 'armature current' },
   fieldVoltage: { dimension: 'voltage', says: 'field voltage' },
   fieldCurrent: { dimension: 'current', says: 'shunt or separate field current' },
+  fieldCurrentSetting: { dimension: 'current', says: "field regulator's current set point" },
+  fieldTemperature: { dimension: 'temperature', says: 'field winding temperature while running readings were taken' },
   lineCurrent: { dimension: 'current', says: 'supply current (armature and shunt field)' },
   speed: { dimension: 'speed', says: 'speed' },
   speedReverse: { dimension: 'speed', says: 'speed at the same set-point in the other direction' },

@@ -21,7 +21,7 @@ export const SYMPTOMS = {
 export type Symptom = keyof typeof SYMPTOMS;
 export const SYMPTOM_IDS = Object.keys(SYMPTOMS) as [Symptom, ...Symptom[]];
 
-export const DRIVES = ['fixed-supply', 'controlled-converter', 'unknown'] as const;
+export const DRIVES = ['fixed-supply', 'controlled-converter', 'battery', 'unknown'] as const;
 export const FEEDBACK = ['tacho', 'encoder', 'armature-voltage', 'none', 'unknown'] as const;
 export const COOLING = ['self-ventilated', 'separately-ventilated', 'non-ventilated', 'unknown'] as const;
 
@@ -37,6 +37,8 @@ export const OBSERVATIONS = {
   'recent-work': { says: 'work done on the machine or drive recently', values: { none: 'none', rewired: 'rewired or reconnected', 'brushes-replaced': 'brushes replaced', 'armature-rewound': 'armature rewound', 'commutator-machined': 'commutator machined', 'bearings-replaced': 'bearings replaced', 'drive-replaced': 'drive replaced or reprogrammed', other: 'other work' } },
   'leads-disturbed': { says: 'which terminations were re-made', values: { none: 'none', armature: 'armature (A1/A2)', 'shunt-field': 'shunt field (F1/F2)', 'series-field': 'series field (S1/S2)', interpole: 'interpole', tacho: 'tacho or encoder', several: 'several' } },
   'load-coupled': { says: 'the driven load is mechanically connected', values: { yes: 'yes', no: 'no' } },
+  'load-kind': { says: 'what the machine drives', values: { general: 'a load that may run either way (general machinery)', hoisting: 'a hoist, crane or winch', incline: 'an inclined conveyor or ramp', 'non-reversible': 'a load that must not run backwards (backstop conveyor, pump, fan)', 'bench-test': 'nothing: on the bench, uncoupled on purpose for a test' } },
+  'load-landed': { says: 'the load of a hoist or incline is landed or blocked', values: { yes: 'yes', no: 'no' } },
   'load-level': { says: 'how much load is on the machine', values: { none: 'none', light: 'light', normal: 'normal', heavy: 'heavy' } },
   'speed-with-load': { says: 'how speed changes as load comes on', values: { 'falls-slightly': 'falls slightly', 'falls-strongly': 'falls strongly', rises: 'rises', 'no-change': 'does not change' } },
   'supply-reversed': { says: 'the supply polarity was reversed to reverse the machine', values: { yes: 'yes', no: 'no' } },

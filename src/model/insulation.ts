@@ -2,13 +2,31 @@
  * Insulation resistance by IEEE Std 43-2013: correction to 40 °C, recommended minimums, and the
  * polarization index.
  */
-import type { InsulationClass, TestedWinding } from './machine.js';
+import type { InsulationClass, InsulationSystem, TestedWinding } from './machine.js';
 
 export const IR_BASE_TEMPERATURE_C = 40;
 
-/** IR halves for every 10 °C rise (IEEE 43 clause 6.3 approximation): R40 = Rt · 0.5^((40 − T)/10). */
-export function insulationAt40C(megohms: number, testC: number): number {
-  return megohms * Math.pow(0.5, (IR_BASE_TEMPERATURE_C - testC) / 10);
+/**
+ * The factor K_T that takes an IR read at `testC` to 40 °C (R40 = K_T · R_T). IEEE 43-2013 treats
+ * the two kinds of insulation differently:
+ * - thermoplastic (asphaltic mica, shellac — older windings): IR halves for every 10 °C rise,
+ *   K_T = 0.5^((40 − T)/10), the approximation the standard's earlier editions gave;
+ * - thermosetting (epoxy and polyester systems, most windings since the 1970s): an Arrhenius form
+ *   K_T = exp(−B·(1/(T + 273) − 1/313)), with B = 4230 K below 40 °C and 1245 K from 40 °C up
+ *   (from memory: verify against IEEE 43-2013 clause 6.4).
+ */
+export function insulationCorrectionFactor(testC: number, system: InsulationSystem = 'thermosetting'): number {
+  if (system === 'thermoplastic') return Math.pow(0.5, (IR_BASE_TEMPERATURE_C - testC) / 10);
+  const b = testC < IR_BASE_TEMPERATURE_C ? THERMOSET_B_BELOW_40_K : THERMOSET_B_FROM_40_K;
+  return Math.exp(-b * (1 / (testC + 273) - 1 / (IR_BASE_TEMPERATURE_C + 273)));
+}
+/** IEEE 43-2013 thermosetting constants, from memory (see insulationCorrectionFactor). */
+export const THERMOSET_B_BELOW_40_K = 4230;
+export const THERMOSET_B_FROM_40_K = 1245;
+
+/** IR corrected to 40 °C: R40 = K_T · R_T. */
+export function insulationAt40C(megohms: number, testC: number, system: InsulationSystem = 'thermosetting'): number {
+  return megohms * insulationCorrectionFactor(testC, system);
 }
 
 /**

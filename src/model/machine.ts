@@ -3,6 +3,8 @@
  * (V, A, ohm, W, rpm, degC, Mohm). The case schema converts typed quantities into this shape.
  */
 
+import type { WindingMaterial } from './resistance.js';
+
 export const CONNECTIONS = [
   'series',
   'shunt',
@@ -16,6 +18,10 @@ export type Connection = (typeof CONNECTIONS)[number];
 
 export const INSULATION_CLASSES = ['A', 'B', 'F', 'H'] as const;
 export type InsulationClass = (typeof INSULATION_CLASSES)[number];
+
+/** IEEE 43-2013 corrects IR for temperature differently for the two (thermosetting when not said). */
+export const INSULATION_SYSTEMS = ['thermosetting', 'thermoplastic'] as const;
+export type InsulationSystem = (typeof INSULATION_SYSTEMS)[number];
 
 export const TESTED_WINDINGS = ['armature', 'shunt-field', 'series-field', 'whole-machine'] as const;
 export type TestedWinding = (typeof TESTED_WINDINGS)[number];
@@ -54,6 +60,8 @@ export interface Nameplate {
   armatureCurrent?: number | undefined;
   lineCurrent?: number | undefined;
   speed?: number | undefined;
+  /** Top of the field-weakening range (a plate written "1750/2300 r/min" gives base and top). */
+  maxSpeed?: number | undefined;
   noLoadSpeed?: number | undefined;
   power?: number | undefined;
   fieldVoltage?: number | undefined;
@@ -78,7 +86,9 @@ export interface MachineData {
   /** Total brush contact drop, V. */
   brushDrop?: number | undefined;
   /** What feeds the armature: a controlled converter sets its voltage for the speed asked. */
-  drive?: 'fixed-supply' | 'controlled-converter' | 'unknown' | undefined;
+  drive?: 'fixed-supply' | 'controlled-converter' | 'battery' | 'unknown' | undefined;
+  insulationSystem?: InsulationSystem | undefined;
+  windingMaterial?: WindingMaterial | undefined;
 }
 
 export interface Readings {
@@ -87,6 +97,10 @@ export interface Readings {
   armatureCurrent?: number | undefined;
   fieldVoltage?: number | undefined;
   fieldCurrent?: number | undefined;
+  /** The field regulator's set point, where the drive regulates field current. */
+  fieldCurrentSetting?: number | undefined;
+  /** Field winding temperature while the running readings were taken (a cold machine is at ambient). */
+  fieldTemperature?: number | undefined;
   lineCurrent?: number | undefined;
   speed?: number | undefined;
   speedReverse?: number | undefined;

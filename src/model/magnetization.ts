@@ -44,3 +44,20 @@ export function describeCurve(curve: Magnetization | undefined): string {
   if (curve === undefined) return `generic Fröhlich-type magnetisation curve, Φ = ${1 + FROEHLICH_C}·i/(${FROEHLICH_C} + i) per unit`;
   return `magnetisation curve from the test sheet (${curve.length} points, interpolated)`;
 }
+
+/**
+ * The exciting current per unit that gives `phi` per unit of flux: the curve read backwards
+ * (bisection; every curve here rises with current). Undefined beyond what 3 per unit gives.
+ */
+export function excitationForFlux(curve: Magnetization | undefined, phi: number): number | undefined {
+  if (!(phi > 0)) return 0;
+  let lo = 0;
+  let hi = 3;
+  if (fluxPerUnit(curve, hi) < phi) return undefined;
+  for (let k = 0; k < 60; k++) {
+    const mid = (lo + hi) / 2;
+    if (fluxPerUnit(curve, mid) < phi) lo = mid;
+    else hi = mid;
+  }
+  return (lo + hi) / 2;
+}
