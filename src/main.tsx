@@ -126,7 +126,7 @@ async function main(argv: string[]): Promise<number> {
         }, null, 2));
       } else {
         if (replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
-        out(formatDiagnosis(d, { width: terminalWidth(), chart: opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor()) }));
+        out(formatDiagnosis(d, { width: terminalWidth(), color: useColor(), chart: opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor()) }));
       }
       if (opts.report !== undefined) {
         try {
@@ -277,7 +277,7 @@ async function dialogue(
     return {
       ok: true,
       props: {
-        ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true } },
+        ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true, remoteAuthorisationAllowed: settings.value.remoteAuthorisationAllowed ?? false } },
         engine: buildEngine(base.value),
         safetyNotice: base.value.safety.notice,
         initialAnswers,

@@ -28,11 +28,14 @@ export function parseAnswer(q: DialogueQuestion, typed: string): ParsedAnswer {
     case 'text':
       return { ok: true, value: { kind: 'text', value: text }, shown: text };
     case 'quantity': {
-      const r = parseQuantity(text, a.dimension);
-      if (!r.ok) return { ok: false, reason: describeQuantityError(r.error) };
+      // A bare number is in the unit the question shows; a base/top speed ("1750/2300") is kept as typed.
       const bare = /^[+-]?[\d.,]+$/.test(text);
-      const shown = bare ? `${text} ${DIMENSIONS[a.dimension].unit}` : normalizeQuantityText(text, a.dimension).replace(/ degC$/, ' °C').replace(/ ohm$/, ' Ω');
-      return { ok: true, value: { kind: 'text', value: text }, shown };
+      const stored = bare ? `${text} ${a.unit ?? DIMENSIONS[a.dimension].unit}` : text;
+      const baseAndTop = a.dimension === 'speed' && /^[\d.,]+\s*\/\s*[\d.,]+\s*\S*$/.test(text);
+      const r = parseQuantity(baseAndTop ? text.split('/')[0]!.trim() : stored, a.dimension);
+      if (!r.ok) return { ok: false, reason: describeQuantityError(r.error) };
+      const shown = bare ? stored : baseAndTop ? text : normalizeQuantityText(text, a.dimension).replace(/ degC$/, ' °C').replace(/ ohm$/, ' Ω');
+      return { ok: true, value: { kind: 'text', value: stored }, shown };
     }
     case 'choice': {
       const pick = pickOption(a.options, text);

@@ -27,7 +27,8 @@ export interface Option {
 export type AnswerKind =
   | { kind: 'choice'; options: Option[] }
   | { kind: 'many'; options: Option[] }
-  | { kind: 'quantity'; dimension: Dimension }
+  /** `unit`: the unit the question shows and a bare number is taken in (else the dimension's default). */
+  | { kind: 'quantity'; dimension: Dimension; unit?: string }
   | { kind: 'text' };
 
 export interface DialogueQuestion {
@@ -44,21 +45,21 @@ export interface DialogueQuestion {
 
 const options = (values: readonly string[], label: (v: string) => string = (v) => v): Option[] => values.filter((v) => v !== 'unknown').map((v) => ({ value: v, label: label(v) }));
 
-function nameplateQuestion(name: string, prompt: string, dimension: Dimension): DialogueQuestion {
-  return { id: `nameplate-${name}`, prompt, state: 'observe', target: { section: 'nameplate', name }, answer: { kind: 'quantity', dimension }, opening: true };
+function nameplateQuestion(name: string, prompt: string, dimension: Dimension, unit?: string): DialogueQuestion {
+  return { id: `nameplate-${name}`, prompt, state: 'observe', target: { section: 'nameplate', name }, answer: { kind: 'quantity', dimension, ...(unit ? { unit } : {}) }, opening: true };
 }
 
 /** The machine, the job details and the symptoms, asked before the rules take over. */
 export function machineQuestions(): DialogueQuestion[] {
   return [
     { id: 'connection', prompt: 'How is the machine connected?', state: 'observe', target: { section: 'machine', name: 'connection' }, answer: { kind: 'choice', options: options(CONNECTIONS, (c) => CONNECTION_TRAITS[c as keyof typeof CONNECTION_TRAITS].label) }, opening: true },
-    { id: 'drive', prompt: 'What feeds the armature?', state: 'observe', target: { section: 'machine', name: 'drive' }, answer: { kind: 'choice', options: options(DRIVES, (d) => (d === 'fixed-supply' ? 'fixed DC supply with starter or contactor' : 'controlled converter (drive)')) }, opening: true },
+    { id: 'drive', prompt: 'What feeds the armature?', state: 'observe', target: { section: 'machine', name: 'drive' }, answer: { kind: 'choice', options: options(DRIVES, (d) => ({ 'fixed-supply': 'fixed DC supply with starter or contactor', 'controlled-converter': 'controlled converter (drive)', battery: 'battery (cannot be isolated upstream)' })[d] ?? d) }, opening: true },
     { id: 'feedback', prompt: 'What speed feedback does the drive use?', state: 'observe', target: { section: 'machine', name: 'feedback' }, answer: { kind: 'choice', options: options(FEEDBACK) }, opening: true },
     { id: 'cooling', prompt: 'How is the machine cooled?', state: 'observe', target: { section: 'machine', name: 'cooling' }, answer: { kind: 'choice', options: options(COOLING, (c) => ({ 'self-ventilated': 'shaft fan', 'separately-ventilated': 'separate blower', 'non-ventilated': 'no fan' })[c] ?? c) }, opening: true },
     nameplateQuestion('armatureVoltage', 'Nameplate: rated armature voltage?', 'voltage'),
     nameplateQuestion('armatureCurrent', 'Nameplate: rated armature current?', 'current'),
-    nameplateQuestion('speed', 'Nameplate: rated speed?', 'speed'),
-    nameplateQuestion('power', 'Nameplate: rated output?', 'power'),
+    nameplateQuestion('speed', 'Nameplate: rated speed? (a drive motor\'s base/top, e.g. 1750/2300, gives both)', 'speed'),
+    nameplateQuestion('power', 'Nameplate: rated output?', 'power', 'kW'),
     nameplateQuestion('fieldVoltage', 'Nameplate: field voltage?', 'voltage'),
     nameplateQuestion('fieldCurrent', 'Nameplate: field current?', 'current'),
     { id: 'nameplate-insulationClass', prompt: 'Nameplate: insulation class?', state: 'observe', target: { section: 'nameplate', name: 'insulationClass' }, answer: { kind: 'choice', options: options(INSULATION_CLASSES) }, opening: true },

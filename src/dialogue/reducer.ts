@@ -10,6 +10,7 @@ import { nextStep, type Flow, type Next } from './flow.js';
 import type { DialogueQuestion } from './questions.js';
 import { jobFromAnswers, parseDraft, type Answer } from './job.js';
 import { nextOutcomeQuestion, outcomeAnswerProblem } from './outcome.js';
+import { computeExpectations } from '../model/expected.js';
 import { entryFrom, forbidden, needsSupervisor, promptsFor, statusOf, workAnswerProblem, type WorkEntry, type WorkPrompt, type WorkRules } from './work.js';
 
 export type Panel = 'why' | 'causes' | 'safety' | 'help';
@@ -20,6 +21,8 @@ export type LogEntry =
   | { kind: 'withdrawn'; answer: Answer }
   | { kind: 'result'; diagnosis: Diagnosis; because: string }
   | { kind: 'note'; text: string }
+  /** A safety warning, logged the first time a diagnosis raises it, so it stays on screen. */
+  | { kind: 'warning'; warning: Diagnosis['warnings'][number] }
   /** A panel asked for (why, causes, safety, help), as things stood when it was asked. */
   | { kind: 'panel'; which: Panel; diagnosis?: Diagnosis | undefined; question?: DialogueQuestion | undefined };
 
@@ -47,6 +50,8 @@ export interface DialogueState {
   pendingWork?: { kind: WorkEntry['kind']; check: CheckResult; got: Partial<Record<WorkPrompt['id'], string>>; firstIsolated: boolean } | undefined;
   /** Said once with the next note. */
   notice?: string | undefined;
+  /** A reading far from the plate, held until the fitter says to keep it. */
+  confirming?: { answer: Answer; says: string } | undefined;
 }
 
 export type DialogueEvent =
@@ -111,7 +116,9 @@ export function reduce(state: DialogueState, event: DialogueEvent, ctx: Dialogue
       return state.phase === 'notice' ? { ...state, phase: 'asking' } : state;
     case 'diagnosed': {
       if (event.version !== state.version) return state; // made for answers since changed
-      const next: DialogueState = { ...state, diagnosis: { version: event.version, value: event.diagnosis } };
+      const shown = new Set(state.log.flatMap((e) => (e.kind === 'warning' ? [e.warning.id] : [])));
+      const fresh = event.diagnosis.warnings.filter((w) => !shown.has(w.id)).map((warning): LogEntry => ({ kind: 'warning', warning }));
+      const next: DialogueState = { ...state, diagnosis: { version: event.version, value: event.diagnosis }, log: fresh.length ? [...state.log, ...fresh] : state.log };
       if (next.phase === 'finishing') return finish(next, next.endedBecause ?? 'you asked for the result');
       if (next.phase === 'asking') {
         const step = currentStep(next, ctx);
@@ -129,8 +136,13 @@ export function reduce(state: DialogueState, event: DialogueEvent, ctx: Dialogue
 function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueContext): DialogueState {
   const text = cleanInput(typed);
   const word = text.toLowerCase();
-  const base = { ...state, error: undefined };
+  const base = { ...state, error: undefined, confirming: undefined };
   if (state.phase === 'notice') return { ...base, phase: 'asking' };
+  if (state.confirming && ['yes', 'y', 'keep'].includes(word)) {
+    const answer = state.confirming.answer;
+    return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer: { ...answer, shown: `${answer.shown} (kept after asking back)` } }] }, [...state.answers, answer]);
+  }
+  if (state.confirming && ['no', 'n'].includes(word)) return { ...base, error: 'not kept: type the reading again, or Enter to leave it unknown' };
   if (word === 'back') {
     const last = state.answers.at(-1);
     if (!last) return { ...base, error: 'nothing to go back to yet' };
@@ -157,7 +169,18 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   const parsed = parseAnswer(step.question, text);
   if (!parsed.ok) return { ...base, error: parsed.reason };
   const answer: Answer = { questionId: step.question.id, target: step.question.target, value: parsed.value, shown: parsed.shown, at };
+  const far = farFromPlate(state, answer, ctx);
+  if (far) return { ...base, confirming: { answer, says: far } };
   return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }] }, [...state.answers, answer]);
+}
+
+/** What the model says of a reading several times its plate value, before it is let into the job. */
+function farFromPlate(state: DialogueState, answer: Answer, ctx: DialogueContext): string | undefined {
+  if (answer.target.section !== 'readings' || answer.value.kind !== 'text') return undefined;
+  const parsed = parseDraft(jobFromAnswers([...state.answers, answer], ctx.machineFile));
+  if (!parsed.ok) return undefined;
+  const name = answer.target.name;
+  return computeExpectations({ machine: parsed.job.machine, readings: parsed.job.readings }).findings.find((f) => f.code === 'reading-far-from-plate' && f.reading === name)?.says;
 }
 
 const DEFAULT_WORK_RULES: WorkRules = { role: 'fitter', apprenticesMayTestLive: true };
@@ -208,7 +231,7 @@ function onWorkPrompt(state: DialogueState, text: string, word: string, at: stri
   if (word === 'back') return { ...state, pendingWork: undefined, error: `left check ${p.check.title} as it was` };
   const prompt = workPrompt(state, ctx);
   if (!prompt) return { ...state, pendingWork: undefined };
-  const problem = workAnswerProblem(prompt, text);
+  const problem = workAnswerProblem(prompt, text, { worker: workerOf(state, ctx), rules: ctx.work ?? DEFAULT_WORK_RULES });
   if (problem) return { ...state, error: problem };
   const got = { ...p.got, [prompt.id]: text };
   const next = { ...state, pendingWork: { ...p, got } };

@@ -13,6 +13,8 @@ export interface WorkRules {
   role: Role;
   /** Site setting: may an apprentice do live tests at all (under authorisation)? */
   apprenticesMayTestLive: boolean;
+  /** Site setting: may a supervisor authorise a live or isolated check without being there? Off unless the site says so. */
+  remoteAuthorisationAllowed?: boolean;
 }
 
 export const workEntrySchema = z.strictObject({
@@ -90,10 +92,22 @@ const REQUIRED_BECAUSE: Partial<Record<WorkPrompt['id'], string>> = {
   'proved-dead-by': 'this cannot be left unknown: name who proved the machine dead',
 };
 
-/** A reason the answer cannot stand, or undefined. */
-export function workAnswerProblem(p: WorkPrompt, text: string): string | undefined {
+/** Names compared as people write them: case, spaces and full stops aside ("J. Smith" = "j smith"). */
+const sameName = (a: string, b: string) => a.toLowerCase().replace(/[\s.]+/g, '') === b.toLowerCase().replace(/[\s.]+/g, '');
+
+/**
+ * A reason the answer cannot stand, or undefined. `worker` is the person doing the check (the
+ * apprentice, who cannot supervise themselves).
+ */
+export function workAnswerProblem(p: WorkPrompt, text: string, context: { worker?: string; rules?: WorkRules } = {}): string | undefined {
   if (p.required && text === '') return REQUIRED_BECAUSE[p.id] ?? 'this is needed';
   if (p.id === 'authorisation' && !['present', 'remote'].includes(text.toLowerCase())) return 'answer present or remote';
+  if (p.id === 'authorisation' && text.toLowerCase() === 'remote' && !context.rules?.remoteAuthorisationAllowed) {
+    return 'this site does not allow a live or isolated check to be authorised remotely: the supervisor must be present (a site can allow it in its settings)';
+  }
+  if ((p.id === 'authorised-by' || p.id === 'signed-off-by') && context.worker !== undefined && sameName(text, context.worker)) {
+    return `the supervisor must be someone other than you (${context.worker}): name the person supervising`;
+  }
   return undefined;
 }
 

@@ -78,7 +78,9 @@ export function reviewRuleBase(base: RuleBase): RuleFinding[] {
     const same = base.rules.find(({ rule }) => rule.kind === 'evidence' && rule.cause === out.cause && rule.weight > 0 && JSON.stringify(rule.conditions) === JSON.stringify(out.conditions));
     if (same) findings.push({ kind: 'ruled-out-and-supported', file, about: `${at} (${out.name})`, message: `cause "${out.cause}" is ruled out by "${out.name}" and supported by "${same.rule.name}" on the same conditions` });
   }
-  const read = new Set(base.rules.flatMap(({ rule }) => factsRead(rule.conditions, base.conditions)));
+  // A check's safety conditions read answers too: what the machine drives decides whether reversing is safe.
+  const checkConditions = base.checks.flatMap((c) => [...(c.unsafeWhen ? [c.unsafeWhen.condition] : []), ...(c.cautions ?? []).map((x) => x.when)]);
+  const read = new Set([...base.rules.flatMap(({ rule }) => factsRead(rule.conditions, base.conditions)), ...checkConditions.flatMap((c) => factsRead(c, base.conditions))]);
   const quantitiesRead = new Set(
     base.rules.flatMap(({ rule }) => leavesOf(rule.conditions, base.conditions).flatMap((l) => [l.path?.slice(2), typeof l.value === 'object' && !Array.isArray(l.value) ? l.value.path?.slice(2) : undefined])).filter((x): x is string => !!x),
   );

@@ -10,6 +10,7 @@ import { computeExpectations, type Expectation } from '../model/expected.js';
 import { combineAll } from './certainty.js';
 import { describeTree, fillTemplate } from './explain.js';
 import { jobFacts, type Facts } from './facts.js';
+import { factsRead } from '../knowledge/load-rules.js';
 import { orderChecks } from './order-checks.js';
 import { runToFixpoint } from './run-rules.js';
 import { compareIds } from './compare-ids.js';
@@ -35,14 +36,32 @@ export interface CheckResult {
   minutes: number;
   how: string;
   instrument: string;
+  /** The check's hazards, with the conditional ones that hold for this job. */
   hazards: string[];
+  /** What each hazard means, in the safety content's words, in the same order. */
+  hazardsSay: string[];
+  /** Needs the machine turning under power. */
+  running: boolean;
+  /** Offered in place of a check that is unsafe for this job. */
+  insteadOf?: string;
+}
+
+/** A check a leading cause would want that is not offered for this job, and why. */
+export interface WithheldCheck {
+  id: string;
+  title: string;
+  causes: string[];
+  because: string;
+  /** The safe check offered in its place, if any. */
+  instead: string | null;
 }
 
 export interface Diagnosis {
-  warnings: { id: string; says: string }[];
+  warnings: { id: string; says: string; severity: 'danger' | 'caution' }[];
   causes: RankedCauseResult[];
   ruledOut: { id: string; title: string; because: string[] }[];
   checks: CheckResult[];
+  withheld: WithheldCheck[];
   isolation: { beforeCheck: string | null; steps: string[] };
   expectation: Expectation;
   facts: Facts;
@@ -59,7 +78,7 @@ export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 
 
 export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngines): Promise<Diagnosis> {
   const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
-  const { facts, fired, askable, askFirst } = await runToFixpoint(engine, base, jobFacts(job, expectation));
+  const { facts, fired, askable, askFirst, unsafe, cautions } = await runToFixpoint(engine, base, jobFacts(job, expectation));
   // A derived fact is explained by what the rule that derived it saw, recursively.
   const derivedBy = new Map(fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])));
   const words = new Map<string, string>();
@@ -103,17 +122,22 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
   }
   causes.sort((a, b) => b.score - a.score || compareIds(a.id, b.id));
 
-  const warnings = base.safety.warnings.filter((w) => warningIds.has(w.id));
+  // Dangers before cautions, each in the safety file's order.
+  const warnings = base.safety.warnings.filter((w) => warningIds.has(w.id)).sort((a, b) => Number(a.severity === 'caution') - Number(b.severity === 'caution'));
   const order = warnings.some((w) => w.clearFaultFirst) ? 'clear-fault-first' : warnings.some((w) => w.isolateFirst) ? 'isolate-first' : 'normal';
+  const runaway = warnings.find((w) => w.runaway);
   const leading = causes.slice(0, CAUSES_WITH_CHECKS);
   const total = leading.reduce((s, c) => s + c.score, 0) || 1;
   const catalogue = new Map(base.causes.map((c) => [c.id, c]));
+  const checkById = new Map(base.checks.map((c) => [c.id, c]));
+  const hazardText = new Map(base.safety.hazards.map((h) => [h.id, h.says]));
+  const safe = safeChecks(leading.map((c) => ({ id: c.id, checks: catalogue.get(c.id)!.checks })), checkById, unsafe, runaway?.id);
   const ordered = orderChecks(
-    leading.map((c) => ({ id: c.id, share: c.score / total, checks: catalogue.get(c.id)!.checks })),
+    leading.map((c) => ({ id: c.id, share: c.score / total, checks: safe.checksOf.get(c.id) ?? [] })),
     base.checks,
     order,
   );
-  const checks = ordered.map(({ check, causes }) => ({
+  const checks: CheckResult[] = ordered.map(({ check, causes }) => ({
     id: check.id,
     title: check.title,
     state: check.state,
@@ -121,18 +145,30 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
     minutes: check.minutes,
     how: check.how,
     instrument: check.instrument,
-    hazards: check.hazards,
+    hazards: [...new Set([...check.hazards, ...(cautions.get(check.id) ?? [])])],
+    hazardsSay: [...new Set([...check.hazards, ...(cautions.get(check.id) ?? [])])].map((h) => hazardText.get(h) ?? h),
+    running: check.running === true,
+    ...(safe.insteadOf.has(check.id) ? { insteadOf: safe.insteadOf.get(check.id)! } : {}),
   }));
+  // A question whose answer decides whether a wanted check is safe is asked before the policy's choice.
+  for (const id of safe.considered) {
+    const condition = checkById.get(id)?.unsafeWhen?.condition;
+    if (!condition) continue;
+    for (const fact of factsRead(condition, base.conditions)) {
+      if (facts[fact] !== undefined) continue;
+      for (const q of base.questions) if (q.answer.kind === 'choice' && q.answer.observation === fact && (!q.askWhen || askable.has(q.id))) askFirst.add(q.id);
+    }
+  }
   const firstIsolated = checks.find((c) => c.state === 'isolated');
-  const iso = base.safety.isolation;
   return {
-    warnings: warnings.map((w) => ({ id: w.id, says: w.says })),
+    warnings: warnings.map((w) => ({ id: w.id, says: w.says, severity: w.severity })),
     causes,
     ruledOut,
     checks,
+    withheld: safe.withheld,
     isolation: {
       beforeCheck: firstIsolated?.id ?? null,
-      steps: firstIsolated ? isolationSteps(iso, job.machine.drive ?? 'unknown') : [],
+      steps: firstIsolated ? isolationSteps(base.safety.isolation, job.machine.drive ?? 'unknown', job.machine.connection) : [],
     },
     expectation,
     facts,
@@ -141,8 +177,51 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
   };
 }
 
-/** The isolation in the order it is done: make the shaft and the field safe, the five rules, then what applies to this drive. */
-export function isolationSteps(iso: RuleBase['safety']['isolation'], drive: string): string[] {
-  const dc = iso.dcSpecific.filter((s) => !s.drives || (s.drives as string[]).includes(drive));
-  return [...dc.filter((s) => s.when === 'before').map((s) => s.says), ...iso.steps.map((s) => s.says), ...dc.filter((s) => s.when === 'after').map((s) => s.says), iso.prevails];
+/**
+ * The checks each leading cause may be offered for this job: a check whose unsafeWhen holds is
+ * replaced by its safe alternative (or dropped), and after a runaway warning nothing that needs
+ * the machine running is offered until the cause is found isolated.
+ */
+function safeChecks(leading: { id: string; checks: string[] }[], checkById: Map<string, Check>, unsafe: Set<string>, runawayWarning: string | undefined) {
+  const checksOf = new Map<string, string[]>();
+  const insteadOf = new Map<string, string>();
+  const withheld = new Map<string, WithheldCheck>();
+  const considered = new Set<string>();
+  const blocked = (c: Check): string | undefined =>
+    unsafe.has(c.id) ? c.unsafeWhen!.says : runawayWarning && c.running ? 'it needs the machine running, and after a runaway warning the machine is not run again until the cause is found isolated' : undefined;
+  for (const cause of leading) {
+    const offered: string[] = [];
+    for (const id of cause.checks) {
+      const check = checkById.get(id);
+      if (!check) continue;
+      considered.add(id);
+      const because = blocked(check);
+      if (!because) {
+        offered.push(id);
+        continue;
+      }
+      const alternative = check.instead ? checkById.get(check.instead) : undefined;
+      const instead = alternative && !blocked(alternative) ? alternative.id : null;
+      const w = withheld.get(id) ?? { id, title: check.title, causes: [], because, instead };
+      w.causes.push(cause.id);
+      withheld.set(id, w);
+      if (instead) {
+        offered.push(instead);
+        insteadOf.set(instead, id);
+      }
+    }
+    checksOf.set(cause.id, [...new Set(offered)]);
+  }
+  return { checksOf, insteadOf, withheld: [...withheld.values()], considered };
+}
+
+/**
+ * The isolation in the order the rule folder gives: the armature off before the field, the five
+ * rules with stored energy released before the absence of voltage is verified, and only the
+ * DC-specific steps that apply to this drive and connection.
+ */
+export function isolationSteps(iso: RuleBase['safety']['isolation'], drive: string, connection: string): string[] {
+  const byId = new Map<string, { says: string; drives?: readonly string[] | undefined; connections?: readonly string[] | undefined }>([...iso.steps, ...iso.dcSpecific].map((s) => [s.id, s]));
+  const applies = (s: { drives?: readonly string[] | undefined; connections?: readonly string[] | undefined }) => (!s.drives || s.drives.includes(drive)) && (!s.connections || connection === 'unknown' || s.connections.includes(connection));
+  return [...iso.sequence.flatMap((id) => (byId.has(id) && applies(byId.get(id)!) ? [byId.get(id)!.says] : [])), iso.prevails];
 }

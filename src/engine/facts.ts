@@ -6,6 +6,7 @@
 import type { CaseFile } from '../knowledge/case-schema.js';
 import { CONNECTION_TRAITS } from '../model/machine.js';
 import type { Expectation } from '../model/expected.js';
+import { afterSwap } from '../model/reversal.js';
 
 export type Facts = Record<string, unknown>;
 
@@ -23,6 +24,14 @@ export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observation
     value: {},
     measured: {},
     ratio: {},
+    // Which swaps reverse this machine: the reversal model is the one source of that physics.
+    swapReverses: {
+      supply: afterSwap(c.machine.connection, 'supply').reversed,
+      armature: afterSwap(c.machine.connection, 'armature').reversed,
+      shuntField: afterSwap(c.machine.connection, 'shunt-field').reversed,
+      seriesField: afterSwap(c.machine.connection, 'series-field').reversed,
+      bothFields: afterSwap(c.machine.connection, 'both-fields').reversed,
+    },
   };
   for (const [name, q] of Object.entries(e.quantities)) {
     (facts.value as Record<string, number>)[name] = q.value;

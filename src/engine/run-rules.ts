@@ -23,6 +23,10 @@ export interface RunOutcome {
   askable: Set<string>;
   /** Questions whose askFirstWhen held. */
   askFirst: Set<string>;
+  /** Checks whose unsafeWhen held: never offered for this job. */
+  unsafe: Set<string>;
+  /** Conditional hazards that hold, as "check id" → hazard ids. */
+  cautions: Map<string, string[]>;
   iterations: number;
 }
 
@@ -30,6 +34,8 @@ export class RuleCycleError extends Error {}
 
 const ASK_PREFIX = 'ask:';
 const ASK_FIRST_PREFIX = 'ask-first:';
+const UNSAFE_PREFIX = 'unsafe:';
+const CAUTION_PREFIX = 'caution:';
 
 const known = (a: unknown) => a !== undefined && a !== null;
 
@@ -66,6 +72,11 @@ export function buildEngine(base: RuleBase): RuleEngines {
     if (q.askWhen) judge.addRule({ name: `${ASK_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askWhen), event: { type: 'askable' } });
     if (q.askFirstWhen) judge.addRule({ name: `${ASK_FIRST_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askFirstWhen), event: { type: 'ask-first' } });
   }
+  // So are a check's safety conditions: when it is unsafe, and which conditional hazards apply.
+  for (const c of base.checks) {
+    if (c.unsafeWhen) judge.addRule({ name: `${UNSAFE_PREFIX}${c.id}`, priority: 1, conditions: topLevel(c.unsafeWhen.condition), event: { type: 'unsafe' } });
+    c.cautions?.forEach((caution, k) => judge.addRule({ name: `${CAUTION_PREFIX}${c.id}:${k}`, priority: 1, conditions: topLevel(caution.when), event: { type: 'caution' } }));
+  }
   return { derive, judge };
 }
 
@@ -93,7 +104,14 @@ export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start:
   const { results } = await engines.judge.run(facts);
   const names = results.map((r) => String(r.name));
   const withPrefix = (prefix: string) => new Set(names.filter((n) => n.startsWith(prefix)).map((n) => n.slice(prefix.length)));
-  return { facts, fired: sortByName([...derived, ...firedOf(results)]), askable: withPrefix(ASK_PREFIX), askFirst: withPrefix(ASK_FIRST_PREFIX), iterations };
+  const cautions = new Map<string, string[]>();
+  for (const entry of withPrefix(CAUTION_PREFIX)) {
+    const cut = entry.lastIndexOf(':');
+    const check = entry.slice(0, cut);
+    const hazard = base.checks.find((c) => c.id === check)?.cautions?.[Number(entry.slice(cut + 1))]?.hazard;
+    if (hazard) cautions.set(check, [...(cautions.get(check) ?? []), hazard]);
+  }
+  return { facts, fired: sortByName([...derived, ...firedOf(results)]), askable: withPrefix(ASK_PREFIX), askFirst: withPrefix(ASK_FIRST_PREFIX), unsafe: withPrefix(UNSAFE_PREFIX), cautions, iterations };
 }
 
 function sortByName(fired: Fired[]): Fired[] {

@@ -24,6 +24,7 @@ import {
   type Condition,
   type Leaf,
   type Question,
+  type RetiredCheck,
   type Rule,
   type Safety,
 } from './rulebase-schema.js';
@@ -40,6 +41,8 @@ export interface RuleBase {
   dir: string;
   causes: Cause[];
   checks: Check[];
+  /** Check ids no longer offered, kept so they are never reused. */
+  retiredChecks?: RetiredCheck[] | undefined;
   questions: Question[];
   safety: Safety;
   conditions: Record<string, Condition>;
@@ -59,7 +62,11 @@ export const STATIC_FACTS = {
   ratio: 'quantities',
   value: 'quantities',
   measured: 'quantities',
+  swapReverses: 'swaps',
 } as const;
+
+/** The swaps the reversal model answers for (facts `swapReverses` with a path "$.supply"…). */
+export const SWAP_FACT_PATHS = ['supply', 'armature', 'shuntField', 'seriesField', 'bothFields'] as const;
 
 export interface LoadOptions {
   /** Files proved valid by the build (see rule-seal.ts): used as read, without a second pass. */
@@ -97,7 +104,8 @@ export function loadRuleBase(dir: string, options: LoadOptions = {}): Result<Rul
   if (issues.length) return failed(...issues);
 
   const causes = read('causes.json', 'causes.json', causesFile)?.causes;
-  const checks = read('checks.json', 'checks.json', checksFile)?.checks;
+  const checksRead = read('checks.json', 'checks.json', checksFile);
+  const checks = checksRead?.checks;
   const questions = read('questions.json', 'questions.json', questionsFile)?.questions;
   const safety = read('safety.json', 'safety.json', safetyFile);
   const conditions = read('conditions.json', 'conditions.json', sharedConditionsFile)?.conditions;
@@ -107,7 +115,7 @@ export function loadRuleBase(dir: string, options: LoadOptions = {}): Result<Rul
     f?.rules.forEach((rule, k) => rules.push({ rule, file: join(dir, name), at: `rules[${k}]` }));
   }
   if (issues.length || !causes || !checks || !questions || !safety || !conditions) return failed(...issues);
-  const base: RuleBase = { dir, causes, checks, questions, safety, conditions, rules };
+  const base: RuleBase = { dir, causes, checks, retiredChecks: checksRead?.retired, questions, safety, conditions, rules };
   const cross = crossCheck(base);
   return cross.length ? failed(...cross) : ok(base);
 }
@@ -140,11 +148,34 @@ export function crossCheck(base: RuleBase): Issue[] {
       if (!checkIds.has(ch)) issues.push(issue(f('causes.json'), `causes[${k}].checks[${j}]`, `cause "${c.id}" names check "${ch}", which checks.json does not define`));
     }),
   );
-  base.checks.forEach((c, k) =>
+  const retired = new Map((base.retiredChecks ?? []).map((r) => [r.id, r]));
+  base.checks.forEach((c, k) => {
+    const where = `checks[${k}] (${c.id})`;
     c.hazards.forEach((h, j) => {
       if (!hazardIds.has(h)) issues.push(issue(f('checks.json'), `checks[${k}].hazards[${j}]`, `check "${c.id}" names hazard "${h}", which safety.json does not define`));
+    });
+    if (retired.has(c.id)) issues.push(issue(f('checks.json'), `${where}.id`, `"${c.id}" is a retired check id: never reuse it for a different test; give the check a new id`));
+    if (c.instead !== undefined && !checkIds.has(c.instead)) issues.push(issue(f('checks.json'), `${where}.instead`, `"${c.instead}" is not a check in checks.json`));
+    if (c.instead !== undefined && !c.unsafeWhen) issues.push(issue(f('checks.json'), `${where}.instead`, 'a check offered instead needs unsafeWhen to say when'));
+    if (c.unsafeWhen) issues.push(...checkCondition(c.unsafeWhen.condition, f('checks.json'), `${where}.unsafeWhen.condition`, derived, base.conditions));
+    c.cautions?.forEach((caution, j) => {
+      if (!hazardIds.has(caution.hazard)) issues.push(issue(f('checks.json'), `${where}.cautions[${j}].hazard`, `"${caution.hazard}" is not a hazard in safety.json`));
+      issues.push(...checkCondition(caution.when, f('checks.json'), `${where}.cautions[${j}].when`, derived, base.conditions));
+    });
+  });
+  (base.retiredChecks ?? []).forEach((r, k) => {
+    if (r.replacedBy !== undefined && !checkIds.has(r.replacedBy)) issues.push(issue(f('checks.json'), `retired[${k}].replacedBy`, `"${r.replacedBy}" is not a check in checks.json`));
+  });
+  base.causes.forEach((c, k) =>
+    c.checks.forEach((ch, j) => {
+      if (retired.has(ch)) issues.push(issue(f('causes.json'), `causes[${k}].checks[${j}]`, `check "${ch}" is retired${retired.get(ch)!.replacedBy ? `: use "${retired.get(ch)!.replacedBy}"` : ''}`));
     }),
   );
+  const stepIds = new Set([...base.safety.isolation.steps.map((s) => s.id), ...base.safety.isolation.dcSpecific.map((s) => s.id)]);
+  base.safety.isolation.sequence.forEach((id, k) => {
+    if (!stepIds.has(id)) issues.push(issue(f('safety.json'), `isolation.sequence[${k}]`, `"${id}" is not an isolation step or a DC-specific step`));
+  });
+  for (const id of stepIds) if (!base.safety.isolation.sequence.includes(id)) issues.push(issue(f('safety.json'), 'isolation.sequence', `step "${id}" is not placed in the sequence`));
   const seenRuleNames = new Map<string, string>();
   for (const { rule, file, at } of base.rules) {
     const where = `${at} (${rule.name})`;
@@ -182,6 +213,9 @@ function checkCondition(c: Condition, file: string, path: string, derived: Set<s
     const q = c.path?.slice(2);
     if (q === undefined) out.push(issue(file, `${path}.path`, `fact "${c.fact}" needs a path naming a quantity, e.g. "$.speed"`));
     else if (!(QUANTITY_NAMES as string[]).includes(q)) out.push(issue(file, `${path}.path`, `"${q}" is not a quantity the model computes`));
+  }
+  if (kind === 'swaps' && !(SWAP_FACT_PATHS as readonly string[]).includes(c.path?.slice(2) ?? '')) {
+    out.push(issue(file, `${path}.path`, `fact "${c.fact}" needs a path naming a swap: ${SWAP_FACT_PATHS.map((n) => `"$.${n}"`).join(', ')}`));
   }
   if (typeof c.value === 'object' && !Array.isArray(c.value)) {
     const refKind = factKind(c.value.fact, derived);

@@ -75,8 +75,18 @@ export const checkSchema = z.strictObject({
   minutes: z.number().positive().max(600),
   /** An insulation or winding test that clears a fault before anything is re-energised. */
   clearsFaultBeforeEnergising: z.boolean().optional(),
+  /** The check needs the machine turning under power: never offered after a runaway warning. */
+  running: z.boolean().optional(),
+  /** Never offered where this holds (the machine, its load or a warning makes it unsafe); `says` tells the fitter why. */
+  unsafeWhen: z.strictObject({ condition: conditionSchema, says: z.string().min(1) }).optional(),
+  /** The safe check offered in its place where `unsafeWhen` holds. */
+  instead: id.optional(),
+  /** Hazards that apply only to some jobs (a suspended load, a differential compound machine). */
+  cautions: z.array(z.strictObject({ when: conditionSchema, hazard: id })).optional(),
 });
-export const checksFile = z.strictObject({ checks: z.array(checkSchema).min(1) });
+/** A check no longer offered: its id stays reserved, so it is never reused for a different test. */
+const retiredCheck = z.strictObject({ id, replacedBy: id.optional(), why: z.string().min(1) });
+export const checksFile = z.strictObject({ checks: z.array(checkSchema).min(1), retired: z.array(retiredCheck).optional() });
 
 const answer = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('choice'), observation: z.string().min(1) }),
@@ -102,8 +112,14 @@ export const safetyFile = z.strictObject({
   isolation: z.strictObject({
     source: z.string().min(1),
     steps: z.array(z.strictObject({ id, says: z.string().min(1) })).length(5),
-    /** DC-specific steps: `before` disconnecting (stop and restrain the shaft, bring the field down) or `after` it; some apply only to some drives. */
-    dcSpecific: z.array(z.strictObject({ id, says: z.string().min(1), when: z.enum(['before', 'after']), drives: z.array(z.enum(DRIVES)).min(1).optional() })),
+    /** DC-specific steps; some apply only to some drives or connections. */
+    dcSpecific: z.array(z.strictObject({ id, says: z.string().min(1), drives: z.array(z.enum(DRIVES)).min(1).optional(), connections: z.array(z.enum(CONNECTIONS)).min(1).optional() })),
+    /**
+     * The order of every step, the five rules and the DC-specific ones together: stored energy is
+     * released before the absence of voltage is verified, and the field comes down only after the
+     * armature circuit is open.
+     */
+    sequence: z.array(id).min(5),
     prevails: z.string().min(1),
     /** The US practice that matches the five rules. */
     usEquivalent: z.string().min(1),
@@ -120,6 +136,10 @@ export const safetyFile = z.strictObject({
         isolateFirst: z.boolean(),
         /** After a fault trip: the insulation and winding tests that clear the fault come first of all. */
         clearFaultFirst: z.boolean().optional(),
+        /** The machine may run away: nothing that needs it running is offered until the cause is found isolated. */
+        runaway: z.boolean().optional(),
+        /** How it is shown: danger (someone can be hurt now) or caution. */
+        severity: z.enum(['danger', 'caution']),
       }),
     )
     .min(1),
@@ -160,6 +180,7 @@ export type Cause = z.infer<typeof causeSchema>;
 export type Check = z.infer<typeof checkSchema>;
 export type Question = z.infer<typeof questionSchema>;
 export type Safety = z.infer<typeof safetyFile>;
+export type RetiredCheck = z.infer<typeof retiredCheck>;
 
 /** The files of a rule folder that are not rule files. */
 export const CATALOGUE_FILES = {

@@ -129,7 +129,7 @@ export function jobReport(r: ReportInput): string {
     lines.push(`   - How: ${c.how} Instrument: ${c.instrument}.`);
     const hazards = c.hazards.map((h) => r.safety.hazards.find((x) => x.id === h)?.says).filter(Boolean);
     if (hazards.length) lines.push(`   - Hazards: ${hazards.join(' ')}`);
-    if (started) lines.push(`   - ${sentence(`Started ${when(started.at)} by ${esc(started.by)}${started.authorisedBy ? `, authorised by ${esc(started.authorisedBy)} (${started.authorisation})` : ''}`)}`);
+    if (started) lines.push(`   - ${sentence(`Started ${when(started.at)} by ${esc(started.by)}${started.authorisedBy ? `, authorised by ${esc(started.authorisedBy)} (${started.authorisation === 'remote' ? 'remotely, not present' : 'present at the machine'})` : r.role === 'apprentice' ? ', looking only: no authorisation needed' : `, on the ${r.role ?? 'fitter'}'s own authority`}`)}`);
     if (done) lines.push(`   - ${sentence(`Done ${when(done.at)} by ${esc(done.by)}${done.signedOffBy ? `, signed off by ${esc(done.signedOffBy)}` : ''}`)}${done.finding ? ` Found: ${sentence(esc(done.finding))}` : ''}`);
     if (!started && !done) lines.push('   - Not done.');
   });

@@ -4,9 +4,17 @@ import { formatExpectation } from './format-expect.js';
 
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'LIVE TEST (qualified person)', isolated: 'isolated' } as const;
 
-export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?: number; chart?: string | undefined } = {}): string {
+/** A warning by its severity: danger and caution read apart without colour too (the prefix), and stand out with it. */
+export function warningLine(w: Diagnosis['warnings'][number], color = false): string {
+  const text = w.severity === 'danger' ? `!! ${w.says}` : `!  CAUTION — ${w.says}`;
+  if (!color) return text;
+  // Danger: bold white on red; caution: bold yellow. Red is kept for danger alone.
+  return w.severity === 'danger' ? `\x1b[1;97;41m${text}\x1b[0m` : `\x1b[1;33m${text}\x1b[0m`;
+}
+
+export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?: number; chart?: string | undefined; color?: boolean } = {}): string {
   const parts: string[] = [];
-  if (d.warnings.length) parts.push(d.warnings.map((w) => `!! ${w.says}`).join('\n'));
+  if (d.warnings.length) parts.push(d.warnings.map((w) => warningLine(w, opts.color)).join('\n'));
   if (d.causes.length === 0) parts.push('No cause stands out from what is known. Add readings or observations and run again.');
   else {
     parts.push(
@@ -29,9 +37,14 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
       }
       lines.push(`${String(k + 1).padStart(2)}. ${c.title} [${STATE_WORDS[c.state]}, ~${c.minutes} min] — for: ${c.causes.map((id) => title.get(id) ?? id).join('; ')}`);
       lines.push(`      ${c.how}`);
+      if (c.insteadOf) lines.push(`      (offered instead of "${d.withheld.find((w) => w.id === c.insteadOf)?.title ?? c.insteadOf}", which is not safe for this job)`);
+      const hazards = c.hazardsSay.map((h) => h.split(':')[0]!.trim());
+      if (hazards.length) lines.push(`      Take care: ${hazards.join('; ')}.`);
     });
     parts.push('Checks, in order:\n' + lines.join('\n'));
   }
+  const notOffered = d.withheld.filter((w) => !w.instead);
+  if (notOffered.length) parts.push('Not offered for this job:\n' + notOffered.map((w) => `  - ${w.title}: ${w.because}.`).join('\n'));
   return parts.join('\n\n');
 }
 

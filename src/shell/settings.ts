@@ -16,6 +16,8 @@ export const settingsSchema = z.strictObject({
   role: z.enum(['fitter', 'apprentice', 'lead']).optional(),
   /** Site rule: apprentices may not do live tests at all. */
   apprenticesMayTestLive: z.boolean().optional(),
+  /** Site rule: a supervisor may authorise an apprentice's live or isolated check remotely (off unless set). */
+  remoteAuthorisationAllowed: z.boolean().optional(),
 });
 export type Settings = z.infer<typeof settingsSchema>;
 

@@ -14,7 +14,7 @@ import type { DialogueQuestion } from '../dialogue/questions.js';
 import type { CaseFile } from '../knowledge/case-schema.js';
 import type { Answer } from '../dialogue/job.js';
 import type { Diagnosis } from '../engine/diagnose.js';
-import { formatDiagnosis } from '../shell/format-diagnosis.js';
+import { formatDiagnosis, warningLine } from '../shell/format-diagnosis.js';
 import { whyAsked } from '../dialogue/why.js';
 import { useLineInput } from './use-line-input.js';
 
@@ -42,7 +42,7 @@ export interface DialogueProps {
 interface Line {
   key: string;
   text: string;
-  tone?: 'warning' | 'muted' | 'answer';
+  tone?: 'danger' | 'caution' | 'notice' | 'muted' | 'answer';
 }
 
 const now = () => new Date().toISOString();
@@ -91,17 +91,23 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
   const recording = state.phase === 'recording' ? outcomeStep(state, ctx) : undefined;
   const working = workPrompt(state, ctx);
 
-  const tone = (t: Line['tone']): { color?: string } => {
-    const c = !color ? undefined : t === 'warning' ? 'red' : t === 'muted' ? 'gray' : t === 'answer' ? 'cyan' : undefined;
+  // Each severity has its own look; the words' prefixes (!!, ! CAUTION, NOTICE, ✗) carry it without colour.
+  const tone = (t: Line['tone']): { color?: string; backgroundColor?: string; bold?: boolean } => {
+    if (!color) return {};
+    if (t === 'danger') return { color: 'whiteBright', backgroundColor: 'red', bold: true };
+    if (t === 'caution') return { color: 'yellow', bold: true };
+    if (t === 'notice') return { color: 'cyan' };
+    const c = t === 'muted' ? 'gray' : t === 'answer' ? 'cyan' : undefined;
     return c ? { color: c } : {};
   };
   const prompt = (id: string) => ctx.flow.all.get(id)?.prompt ?? id;
   const transcript: Line[] = [
-    { key: 'notice', text: safetyNotice, tone: 'warning' },
+    { key: 'notice', text: `NOTICE: ${safetyNotice}`, tone: 'notice' },
     ...state.log.map((e, k): Line => {
       if (e.kind === 'answer') return { key: `l${k}`, text: `${prompt(e.answer.questionId)}  → ${e.answer.shown}`, tone: 'answer' };
       if (e.kind === 'withdrawn') return { key: `l${k}`, text: `↩ taken back: ${prompt(e.answer.questionId)} (was ${e.answer.shown})`, tone: 'muted' };
       if (e.kind === 'note') return { key: `l${k}`, text: e.text, tone: 'answer' };
+      if (e.kind === 'warning') return { key: `l${k}`, text: warningLine(e.warning), tone: e.warning.severity };
       if (e.kind === 'panel') return { key: `l${k}`, text: panelText(e.which, e.question, ctx, e.diagnosis, safetyNotice, width), tone: 'muted' };
       const job = parseDraft(draftOf(state, ctx));
       return { key: `l${k}`, text: `${formatDiagnosis(e.diagnosis, { width, chart: job.ok && chart ? chart(job.job) : undefined })}\n\nQuestions ended: ${e.because}.` };
@@ -113,13 +119,11 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
     <Box flexDirection="column">
       <Static items={transcript}>{(l) => <Text key={l.key} {...tone(l.tone)}>{l.text}</Text>}</Static>
       {state.phase === 'notice' && <Text>Press Enter to begin.</Text>}
-      {state.phase === 'asking' && diagnosis && diagnosis.warnings.length > 0 && (
-        <Box flexDirection="column">{diagnosis.warnings.map((w) => <Text key={w.id} {...(color ? { color: 'red' } : {})}>!! {w.says}</Text>)}</Box>
-      )}
       {state.phase === 'asking' && leaders.length > 0 && (
         <Text>Leading: {leaders.map((c, k) => `${k + 1} ${c.title} ${c.score.toFixed(2)}`).join(' · ')}</Text>
       )}
-      {state.phase === 'asking' && step.kind === 'ask' && <QuestionView question={step.question} firstIsolated={step.question.state === 'isolated' && !state.answers.some((a) => ctx.flow.all.get(a.questionId)?.state === 'isolated')} ctx={ctx} color={color} />}
+      {state.confirming && <Text bold>? {state.confirming.says}. Keep it? (yes / no, or type the reading again)</Text>}
+      {state.phase === 'asking' && !state.confirming && step.kind === 'ask' && <QuestionView question={step.question} firstIsolated={step.question.state === 'isolated' && !state.answers.some((a) => ctx.flow.all.get(a.questionId)?.state === 'isolated')} ctx={ctx} color={color} />}
       {recording && <QuestionView question={recording} firstIsolated={false} ctx={ctx} color={color} />}
       {working && <Text bold>? {state.pendingWork!.check.title}: {working.prompt}</Text>}
       {state.phase === 'asking' && step.kind === 'needs-diagnosis' && <Text>Working out the next question…</Text>}
@@ -132,7 +136,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
         </Text>
       )}
       {state.saved && <Text>{state.saved}</Text>}
-      {state.error && <Text {...(color ? { color: 'red' } : {})}>✗ {state.error}</Text>}
+      {state.error && <Text {...(color ? { color: 'magenta' } : {})}>✗ {state.error}</Text>}
       {state.phase !== 'notice' && <Text>&gt; {typed}</Text>}
       <Text {...(color ? { color: 'gray' } : {})} >{width < 70 ? 'Enter=unknown · back why causes safety done help · Ctrl-C' : 'Enter alone = unknown · back · why · causes · safety · done · help · Ctrl-C'}</Text>
     </Box>
@@ -143,7 +147,7 @@ function QuestionView({ question, firstIsolated, ctx, color }: { question: Dialo
   const a = question.answer;
   return (
     <Box flexDirection="column">
-      <Text bold>? {question.prompt}{question.state === 'live-test' ? '  [LIVE TEST: qualified person]' : question.state === 'isolated' ? '  [needs isolation]' : ''}{a.kind === 'quantity' ? `  (default unit ${unitOf(a.dimension)})` : ''}</Text>
+      <Text bold>? {question.prompt}{question.state === 'live-test' ? '  [LIVE TEST: qualified person]' : question.state === 'isolated' ? '  [needs isolation]' : ''}{a.kind === 'quantity' ? `  (default unit ${a.unit ?? unitOf(a.dimension)})` : ''}</Text>
       {(a.kind === 'choice' || a.kind === 'many') && (
         <Box flexWrap="wrap" columnGap={2}>
           {a.options.map((o, k) => <Text key={o.value}>{k + 1} {o.label}</Text>)}
@@ -163,7 +167,10 @@ function unitOf(d: string): string {
 function panelText(which: string, question: DialogueQuestion | undefined, ctx: DialogueContext, diagnosis: Diagnosis | undefined, safetyNotice: string, width: number): string {
   if (which === 'safety') {
     const iso = ctx.flow.base.safety.isolation;
-    return [safetyNotice, 'To isolate:', ...isolationSteps(iso, 'unknown').map((s, k) => `${k + 1}. ${s}`)].join('\n');
+    const machine = diagnosis?.facts;
+    const drive = typeof machine?.drive === 'string' ? machine.drive : 'unknown';
+    const connection = typeof machine?.connection === 'string' ? machine.connection : 'unknown';
+    return [safetyNotice, 'To isolate:', ...isolationSteps(iso, drive, connection).map((s, k) => `${k + 1}. ${s}`)].join('\n');
   }
   if (which === 'help') return [...Object.entries(COMMANDS).map(([w, says]) => `${w.padEnd(8)} ${says}`), 'Choices: their number or word. Quantities: as the meter reads, e.g. 14,5 V or 1450 rpm.'].join('\n');
   if (which === 'causes') return diagnosis ? formatDiagnosis({ ...diagnosis, checks: [] }, { readings: false, width }) : "No ranking yet: the machine's connection is needed first.";

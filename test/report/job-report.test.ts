@@ -46,7 +46,7 @@ describe('the job report', () => {
       { check: check.id, kind: 'done', at: '2026-12-01T21:25:00Z', by: 'T. Apprentice', signedOffBy: 'R. Lead', finding: 'rheostat track burnt' },
     ];
     const { text } = await reportFor('2026-10-14-press-feed-field-weak.json', work);
-    expect(text).toContain('Started 2026-12-01 21:05 UTC by T. Apprentice, authorised by R. Lead (present).');
+    expect(text).toContain('Started 2026-12-01 21:05 UTC by T. Apprentice, authorised by R. Lead (present at the machine).');
     expect(text).toContain('Done 2026-12-01 21:25 UTC by T. Apprentice, signed off by R. Lead. Found: rheostat track burnt.');
     expect(text).toContain('| Proved dead by | R. Lead |');
     // Where the job was done, the times are local with UTC beside them (IANA: Berlin is UTC+1 in December).

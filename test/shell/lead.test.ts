@@ -143,7 +143,7 @@ describe('dctriage rules check', () => {
     const r = broken((d) => {
       const f = join(d, 'questions.json');
       const q = JSON.parse(readFileSync(f, 'utf8'));
-      q.questions.push({ id: 'lonely', prompt: 'Ambient temperature?', state: 'observe', answer: { kind: 'quantity', reading: 'ambientTemperature' } });
+      q.questions.push({ id: 'lonely', prompt: 'Insulation tester voltage?', state: 'observe', answer: { kind: 'quantity', reading: 'insulationTestVoltage' } });
       writeFileSync(f, JSON.stringify(q));
     });
     expect(JSON.parse(r.stdout).findings).toContainEqual(expect.objectContaining({ kind: 'unused-question', about: expect.stringContaining('lonely') }));

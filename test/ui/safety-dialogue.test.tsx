@@ -1,0 +1,70 @@
+import { describe, expect, it } from 'vitest';
+import { renderDialogue } from '../support/dialogue.js';
+
+/** An invented job: a separately excited mixer drive; the opening answers up to the symptoms. */
+async function openJob(d: ReturnType<typeof renderDialogue>, state: string, symptom: string, power = '30 kW') {
+  await d.type(''); // past the safety notice
+  await d.type(state);
+  await d.type('1'); // no fault shown
+  await d.type('separately');
+  await d.type('converter');
+  await d.type(''); // feedback unknown
+  await d.type('blower');
+  await d.type('400 V');
+  await d.type('85 A');
+  await d.type('1500 rpm');
+  await d.type(power);
+  await d.type('310 V');
+  await d.type('2.4 A');
+  await d.type('F');
+  await d.type('WO-5150');
+  await d.type('mixer 4');
+  await d.type('T. Apprentice');
+  await d.type(symptom);
+}
+
+describe('safety in the dialogue', () => {
+  it('warns of a runaway as soon as the complaint is made, for an apprentice too, and asks nothing live after it', async () => {
+    const d = renderDialogue({ work: { role: 'apprentice', apprenticesMayTestLive: true } });
+    await openJob(d, 'running', '3'); // runs faster than it should
+    const afterComplaint = d.screen();
+    expect(afterComplaint).toContain('!! DANGER — the machine is, or was, running well above its safe speed');
+    const asked: string[] = [];
+    for (let k = 0; k < 14 && !(d.lastFrame() ?? '').includes('Type start N'); k++) {
+      asked.push((d.lastFrame() ?? '').split('\n').find((l) => l.startsWith('? ')) ?? '');
+      await d.type('');
+    }
+    expect(asked.filter((q) => /LIVE TEST/.test(q))).toEqual([]);
+    d.unmount();
+  });
+
+  it('takes a bare nameplate output in the kW the question shows', async () => {
+    const d = renderDialogue();
+    await openJob(d, 'stopped', '4', '30');
+    expect(d.screen()).toContain('Nameplate: rated output?  → 30 kW');
+    d.unmount();
+  });
+
+  it('asks back a reading several times its plate value before it counts, and keeps the corrected one', async () => {
+    const d = renderDialogue();
+    await openJob(d, 'running', '4'); // runs slower than it should
+    let found = false;
+    for (let k = 0; k < 16; k++) {
+      const asked = (d.lastFrame() ?? '').split('\n').find((l) => l.startsWith('? ')) ?? '';
+      if (/armature voltage at the machine terminals/.test(asked)) {
+        found = true;
+        break;
+      }
+      await d.type('');
+    }
+    expect(found).toBe(true);
+    await d.type('1900');
+    expect(d.lastFrame()).toMatch(/armature voltage 1900 V is 4\.8 × the plate's 400 V.*Keep it\?/s);
+    await d.type('no');
+    expect(d.lastFrame()).toContain('not kept: type the reading again');
+    await d.type('380');
+    expect(d.screen()).toContain('armature voltage at the machine terminals?  → 380 V');
+    expect(d.screen()).not.toContain('→ 1900 V');
+    d.unmount();
+  });
+});
