@@ -118,9 +118,13 @@ async function main(argv: string[]): Promise<number> {
       if (opts.json) {
         out(JSON.stringify({
           ...(replay ? { questionsAsked: replay.questionsAsked } : {}),
+          status: d.status,
+          confirmed: d.confirmed,
+          next: d.next,
           warnings: d.warnings,
           causes: d.causes.map(({ id, title, score, evidence }) => ({ id, title, score, evidence: evidence.map(({ rule, says }) => ({ rule, says })) })),
-          checks: d.checks.map(({ id, title, state, causes, minutes }) => ({ id, title, state, causes, minutes })),
+          checks: d.checks.map(({ id, title, state, causes, minutes, result }) => ({ id, title, state, causes, minutes, ...(result ? { result } : {}) })),
+          withheld: d.withheld.map(({ id, title, because, instead }) => ({ id, title, because, instead })),
           isolation: d.isolation,
           quantities: d.expectation.quantities,
         }, null, 2));
@@ -206,7 +210,7 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
   const report = await checkCases(files, base.value, runner);
   if (!report.ok) return fail(report.issues);
   out(opts.json ? JSON.stringify(report.value, null, 2) : formatCaseCheck(report.value));
-  return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
+  return report.value.cases.some((c) => c.rank === 0 || c.rank > 3 || (c.loop?.confirmed && !c.loop.correct)) ? 1 : 0;
 }
 
 /** A job file with the rule base in use: a recorded cause must be one of its catalogue. */

@@ -15,6 +15,21 @@ export interface CaseRank {
   ranked: string[];
   /** With an adaptive run: the question ids the dialogue's policy asked, in order. */
   questionsAsked?: string[];
+  /** For a case that records the checks worked: the loop replayed on them. */
+  loop?: LoopReplay;
+}
+
+export interface LoopReplay {
+  /** Checks the case records. */
+  worked: number;
+  /** The cause the replay confirmed, or null. */
+  confirmed: string | null;
+  /** It confirmed the recorded cause. */
+  correct: boolean;
+  /** Minutes of checks worked until it confirmed (all of them when it did not). */
+  minutes: number;
+  /** How many checks it took to confirm. */
+  after: number;
 }
 
 /** How a case is put to the engine: whole, or through the dialogue's questions. */
@@ -29,7 +44,8 @@ export interface CaseCheckReport {
 
 export async function checkCases(files: string[], base: RuleBase, runner?: CaseRunner): Promise<Result<CaseCheckReport>> {
   const engine = buildEngine(base);
-  const run: CaseRunner = runner ?? (async (c) => ({ ranked: (await diagnose(c, base, engine)).causes.map((x) => x.id) }));
+  // The rules' own ranking, before any check result: the recorded checks are replayed apart.
+  const run: CaseRunner = runner ?? (async (c) => ({ ranked: (await diagnose({ ...c, checks: [] }, base, engine)).causes.map((x) => x.id) }));
   const causeIds = new Set(base.causes.map((c) => c.id));
   const issues: Issue[] = [];
   const cases: CaseRank[] = [];
@@ -43,7 +59,8 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
     const expected = job.outcome?.cause;
     if (expected === undefined) continue;
     const { ranked, questionsAsked } = await run(job, raw);
-    cases.push({ id: job.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}) });
+    const loop = job.checks?.length ? await replayChecks(job, expected, base, engine) : undefined;
+    cases.push({ id: job.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}), ...(loop ? { loop } : {}) });
   }
   if (issues.length) return failed(...issues);
   return ok({
@@ -52,4 +69,17 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
     top3: cases.filter((c) => c.rank >= 1 && c.rank <= 3).length,
     cases,
   });
+}
+
+/** Replays a case's recorded checks in order: where the loop confirmed a cause, and after how many minutes. */
+async function replayChecks(job: CaseFile, expected: string, base: RuleBase, engine: ReturnType<typeof buildEngine>): Promise<LoopReplay> {
+  const checks = job.checks ?? [];
+  const minutesOf = new Map(base.checks.map((c) => [c.id, c.minutes]));
+  let minutes = 0;
+  for (let k = 1; k <= checks.length; k++) {
+    minutes += minutesOf.get(checks[k - 1]!.id) ?? 0;
+    const d = await diagnose({ ...job, checks: checks.slice(0, k) }, base, engine);
+    if (d.status === 'confirmed') return { worked: checks.length, confirmed: d.confirmed, correct: d.confirmed === expected, minutes, after: k };
+  }
+  return { worked: checks.length, confirmed: null, correct: false, minutes, after: checks.length };
 }

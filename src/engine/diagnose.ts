@@ -3,7 +3,7 @@
  * before anything else, ordered checks and the isolation steps before the first isolated one.
  */
 import type { RuleEngines } from './run-rules.js';
-import type { CaseFile } from '../knowledge/case-schema.js';
+import type { CaseFile, WorkedCheck } from '../knowledge/case-schema.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import type { AppliesTo, Check } from '../knowledge/rulebase-schema.js';
 import { computeExpectations, type Expectation } from '../model/expected.js';
@@ -12,6 +12,7 @@ import { describeTree, fillTemplate } from './explain.js';
 import { jobFacts, type Facts } from './facts.js';
 import { factsRead } from '../knowledge/load-rules.js';
 import { orderChecks } from './order-checks.js';
+import { checkValue, confirmedBy, resultEvidence } from './loop.js';
 import { runToFixpoint } from './run-rules.js';
 import { compareIds } from './compare-ids.js';
 
@@ -44,6 +45,9 @@ export interface CheckResult {
   running: boolean;
   /** Offered in place of a check that is unsafe for this job. */
   insteadOf?: string;
+  /** Once worked: what it showed, and the fitter's finding. */
+  result?: 'normal' | 'abnormal' | 'inconclusive';
+  finding?: string;
 }
 
 /** A check a leading cause would want that is not offered for this job, and why. */
@@ -57,6 +61,13 @@ export interface WithheldCheck {
 }
 
 export interface Diagnosis {
+  status: LoopStatus;
+  /** The cause found, when status is confirmed. */
+  confirmed: string | null;
+  /** The check to do next; null when none is left or the fault is confirmed. */
+  next: string | null;
+  /** Once confirmed: what was found, what it means for the repair, and the return-to-service steps. */
+  found: { cause: string; title: string; means: string; returnToService: string[] } | null;
   warnings: { id: string; says: string; severity: 'danger' | 'caution' }[];
   causes: RankedCauseResult[];
   ruledOut: { id: string; title: string; because: string[] }[];
@@ -71,12 +82,18 @@ export interface Diagnosis {
   askFirst: Set<string>;
 }
 
-/** How many of the leading causes contribute checks. */
-const CAUSES_WITH_CHECKS = 4;
+/** How many of the leading causes contribute checks: as results clear them, the next ones come in. */
+const CAUSES_WITH_CHECKS = 5;
 
-export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'readings'>;
+export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'readings' | 'checks'>;
 
-export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngines): Promise<Diagnosis> {
+/** open: checks remain; confirmed: a check found the fault; exhausted: every useful check is done, nothing confirmed. */
+export type LoopStatus = 'open' | 'confirmed' | 'exhausted';
+
+export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngines): Promise<Diagnosis> {
+  const worked = (input.checks ?? []).filter((w) => base.checks.some((c) => c.id === w.id));
+  // What the checks measured and saw enters the model and the rules like any other reading.
+  const job = withCheckFindings(input, worked);
   const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
   const { facts, fired, askable, askFirst, unsafe, cautions } = await runToFixpoint(engine, base, jobFacts(job, expectation));
   // A derived fact is explained by what the rule that derived it saw, recursively.
@@ -108,16 +125,24 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
       (!a.drives || a.drives.includes(job.machine.drive ?? 'unknown')) &&
       (!a.feedback || a.feedback.includes(job.machine.feedback ?? 'unknown')));
 
-  const causes: RankedCauseResult[] = [];
+  const checkById = new Map(base.checks.map((c) => [c.id, c]));
+  const shows = checksShow(base);
+  const ruleScores = new Map<string, number>();
   const ruledOut: Diagnosis['ruledOut'] = [];
   for (const cause of base.causes) {
     const because = ruledOutBy.get(cause.id) ?? (applies(cause.appliesTo) ? undefined : ['does not apply to this machine or drive']);
-    if (because) {
-      ruledOut.push({ id: cause.id, title: cause.title, because });
-      continue;
-    }
+    if (because) ruledOut.push({ id: cause.id, title: cause.title, because });
+    else ruleScores.set(cause.id, combineAll((weights.get(cause.id) ?? []).map((e) => e.weight)));
+  }
+  // Then what the checks found, in the order they were worked.
+  for (const [cause, evidence] of resultEvidence(worked, checkById, shows, ruleScores)) weights.set(cause, [...(weights.get(cause) ?? []), ...evidence]);
+  const causes: RankedCauseResult[] = [];
+  const scores = new Map<string, number>();
+  for (const cause of base.causes) {
+    if (!ruleScores.has(cause.id)) continue;
     const evidence = weights.get(cause.id) ?? [];
     const score = combineAll(evidence.map((e) => e.weight));
+    scores.set(cause.id, score);
     if (score > 0) causes.push({ id: cause.id, title: cause.title, score: Number(score.toFixed(3)), evidence: evidence.sort((a, b) => b.weight - a.weight) });
   }
   causes.sort((a, b) => b.score - a.score || compareIds(a.id, b.id));
@@ -126,22 +151,40 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
   const warnings = base.safety.warnings.filter((w) => warningIds.has(w.id)).sort((a, b) => Number(a.severity === 'caution') - Number(b.severity === 'caution'));
   const order = warnings.some((w) => w.clearFaultFirst) ? 'clear-fault-first' : warnings.some((w) => w.isolateFirst) ? 'isolate-first' : 'normal';
   const runaway = warnings.find((w) => w.runaway);
-  const leading = causes.slice(0, CAUSES_WITH_CHECKS);
-  const total = leading.reduce((s, c) => s + c.score, 0) || 1;
+  const confirmed = confirmation(worked, shows, scores);
+
+  // The checks still worth doing: those of the leading causes, not yet worked, safe for this job.
+  const done = new Set(worked.map((w) => w.id));
+  const faultFound = worked.find((w) => w.result === 'abnormal' && checkById.get(w.id)?.clearsFaultBeforeEnergising);
+  const leading = confirmed ? [] : causes.slice(0, CAUSES_WITH_CHECKS);
   const catalogue = new Map(base.causes.map((c) => [c.id, c]));
-  const checkById = new Map(base.checks.map((c) => [c.id, c]));
   const hazardText = new Map(base.safety.hazards.map((h) => [h.id, h.says]));
-  const safe = safeChecks(leading.map((c) => ({ id: c.id, checks: catalogue.get(c.id)!.checks })), checkById, unsafe, runaway?.id);
-  const ordered = orderChecks(
-    leading.map((c) => ({ id: c.id, share: c.score / total, checks: safe.checksOf.get(c.id) ?? [] })),
-    base.checks,
-    order,
+  const safe = safeChecks(
+    leading.map((c) => ({ id: c.id, checks: catalogue.get(c.id)!.checks.filter((k) => !done.has(k)) })),
+    checkById,
+    unsafe,
+    { runawayWarning: runaway?.id, faultFound: faultFound ? checkById.get(faultFound.id)!.title : undefined },
   );
-  const checks: CheckResult[] = ordered.map(({ check, causes }) => ({
+  // The causes in play: those with a positive score. Their checks compete on value per minute.
+  const inPlay = new Map(causes.map((c) => [c.id, scores.get(c.id)!]));
+  const valueOf = new Map<string, number>();
+  const value = (check: Check) => {
+    if (!valueOf.has(check.id)) valueOf.set(check.id, checkValue(check, shows.get(check.id) ?? [], inPlay));
+    return valueOf.get(check.id)!;
+  };
+  const lastWorked = worked.at(-1);
+  const isolatedNow = lastWorked !== undefined && checkById.get(lastWorked.id)?.state === 'isolated';
+  const ordered = orderChecks(
+    leading.map((c) => ({ id: c.id, checks: safe.checksOf.get(c.id) ?? [] })),
+    base.checks,
+    value,
+    { order, isolatedNow },
+  );
+  const describe = (check: Check, causesFor: string[]): CheckResult => ({
     id: check.id,
     title: check.title,
     state: check.state,
-    causes,
+    causes: causesFor,
     minutes: check.minutes,
     how: check.how,
     instrument: check.instrument,
@@ -149,7 +192,9 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
     hazardsSay: [...new Set([...check.hazards, ...(cautions.get(check.id) ?? [])])].map((h) => hazardText.get(h) ?? h),
     running: check.running === true,
     ...(safe.insteadOf.has(check.id) ? { insteadOf: safe.insteadOf.get(check.id)! } : {}),
-  }));
+  });
+  const workedResults: CheckResult[] = worked.map((w) => ({ ...describe(checkById.get(w.id)!, [...(shows.get(w.id) ?? [])]), result: w.result, ...(w.finding ? { finding: w.finding } : {}) }));
+  const remaining = ordered.map(({ check, causes: causesFor }) => describe(check, causesFor));
   // A question whose answer decides whether a wanted check is safe is asked before the policy's choice.
   for (const id of safe.considered) {
     const condition = checkById.get(id)?.unsafeWhen?.condition;
@@ -159,12 +204,19 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
       for (const q of base.questions) if (q.answer.kind === 'choice' && q.answer.observation === fact && (!q.askWhen || askable.has(q.id))) askFirst.add(q.id);
     }
   }
-  const firstIsolated = checks.find((c) => c.state === 'isolated');
+  const firstIsolated = isolatedNow ? undefined : remaining.find((c) => c.state === 'isolated');
+  const status: LoopStatus = confirmed ? 'confirmed' : remaining.length === 0 && worked.length > 0 ? 'exhausted' : 'open';
   return {
+    status,
+    confirmed: confirmed ?? null,
+    next: remaining[0]?.id ?? null,
+    found: confirmed
+      ? { cause: confirmed, title: catalogue.get(confirmed)!.title, means: catalogue.get(confirmed)!.description, returnToService: base.safety.returnToService.map((r) => r.says) }
+      : null,
     warnings: warnings.map((w) => ({ id: w.id, says: w.says, severity: w.severity })),
     causes,
     ruledOut,
-    checks,
+    checks: [...workedResults, ...remaining],
     withheld: safe.withheld,
     isolation: {
       beforeCheck: firstIsolated?.id ?? null,
@@ -177,18 +229,55 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
   };
 }
 
+/** The job with each worked check's readings and observations laid over the ones before: the latest reading counts. */
+function withCheckFindings(job: JobInput, worked: readonly WorkedCheck[]): JobInput {
+  if (worked.length === 0) return job;
+  let readings = { ...job.readings };
+  let observations = { ...job.observations };
+  for (const w of worked) {
+    readings = { ...readings, ...w.readings };
+    observations = { ...observations, ...w.observations };
+  }
+  return { ...job, readings, observations };
+}
+
+/** Which causes each check shows: those that list it in the catalogue. */
+export function checksShow(base: RuleBase): Map<string, string[]> {
+  const shows = new Map<string, string[]>();
+  for (const cause of base.causes) for (const id of cause.checks) shows.set(id, [...(shows.get(id) ?? []), cause.id]);
+  return shows;
+}
+
+/** The cause the loop has found: the fitter's word, else the latest abnormal result that leaves one cause clearly ahead. */
+function confirmation(worked: readonly WorkedCheck[], shows: ReadonlyMap<string, readonly string[]>, scores: ReadonlyMap<string, number>): string | undefined {
+  const said = [...worked].reverse().find((w) => w.confirms !== undefined && scores.has(w.confirms));
+  if (said) return said.confirms;
+  for (const w of [...worked].reverse()) {
+    if (w.result !== 'abnormal') continue;
+    const found = confirmedBy((shows.get(w.id) ?? []).filter((c) => scores.has(c)), (c) => scores.get(c) ?? 0);
+    if (found) return found;
+  }
+  return undefined;
+}
+
 /**
  * The checks each leading cause may be offered for this job: a check whose unsafeWhen holds is
  * replaced by its safe alternative (or dropped), and after a runaway warning nothing that needs
  * the machine running is offered until the cause is found isolated.
  */
-function safeChecks(leading: { id: string; checks: string[] }[], checkById: Map<string, Check>, unsafe: Set<string>, runawayWarning: string | undefined) {
+function safeChecks(leading: { id: string; checks: string[] }[], checkById: Map<string, Check>, unsafe: Set<string>, hold: { runawayWarning: string | undefined; faultFound: string | undefined }) {
   const checksOf = new Map<string, string[]>();
   const insteadOf = new Map<string, string>();
   const withheld = new Map<string, WithheldCheck>();
   const considered = new Set<string>();
   const blocked = (c: Check): string | undefined =>
-    unsafe.has(c.id) ? c.unsafeWhen!.says : runawayWarning && c.running ? 'it needs the machine running, and after a runaway warning the machine is not run again until the cause is found isolated' : undefined;
+    unsafe.has(c.id)
+      ? c.unsafeWhen!.says
+      : hold.runawayWarning && c.running
+        ? 'it needs the machine running, and after a runaway warning the machine is not run again until the cause is found isolated'
+        : hold.faultFound && (c.running || c.state === 'live-test')
+          ? `${hold.faultFound} found a fault: nothing is energised onto it until it is put right`
+          : undefined;
   for (const cause of leading) {
     const offered: string[] = [];
     for (const id of cause.checks) {

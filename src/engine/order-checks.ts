@@ -1,24 +1,20 @@
 /**
- * Orders the checks that confirm or clear the ranked causes.
+ * Orders the checks still to do.
  *
  * Safety first: when a runaway warning applies, the machine is not run again to look, so isolated
  * checks come first; after an earth-fault or overcurrent trip the insulation and winding tests
- * that clear the fault head them, and nothing is energised before them.
- * Otherwise the observe and live-test checks come before the isolated ones, so the machine is
- * isolated once.
+ * that clear the fault head them, and nothing is energised before them. Otherwise the observe and
+ * live-test checks come before the isolated ones, so the machine is isolated once; and once it
+ * stands isolated, the isolated checks still worth doing come before anything that re-energises it.
  *
- * Within a group, checks go in falling order of the chance they find the fault per minute they
- * take (p/c): the order that finds a single fault soonest on average when each check confirms or
- * clears its causes: the classic least-cost testing order of search theory (Mitten, 1960;
- * Kadane and Simon, 1977; references from memory).
+ * Within a group, checks go in falling order of their value per minute (see loop.ts): the
+ * least-cost testing order of search theory (Mitten, 1960; Kadane and Simon, 1977; from memory).
  */
 import type { Check } from '../knowledge/rulebase-schema.js';
 import { compareIds } from './compare-ids.js';
 
-export interface RankedCause {
+export interface CauseChecks {
   id: string;
-  /** Share of the summed positive scores: a rough probability among the ranked causes. */
-  share: number;
   checks: string[];
 }
 
@@ -30,24 +26,23 @@ export interface OrderedCheck {
 /** normal: look and test live, then isolate once; isolate-first: isolated checks first; clear-fault-first: and the fault-clearing tests at their head. */
 export type CheckOrder = 'normal' | 'isolate-first' | 'clear-fault-first';
 
-export function orderChecks(ranked: RankedCause[], checks: Check[], order: CheckOrder): OrderedCheck[] {
+export function orderChecks(causes: CauseChecks[], checks: Check[], value: (check: Check) => number, opts: { order: CheckOrder; isolatedNow?: boolean }): OrderedCheck[] {
   const byId = new Map(checks.map((c) => [c.id, c]));
   const causesOf = new Map<string, string[]>();
-  for (const cause of ranked) {
+  for (const cause of causes) {
     for (const id of cause.checks) causesOf.set(id, [...(causesOf.get(id) ?? []), cause.id]);
   }
-  const share = new Map(ranked.map((c) => [c.id, c.share]));
-  const worth = (id: string) => {
-    const p = Math.min(1, (causesOf.get(id) ?? []).reduce((s, c) => s + (share.get(c) ?? 0), 0));
-    return p / byId.get(id)!.minutes;
-  };
+  // Looking without running the machine (a drive's keypad, a nameplate) energises nothing: after a
+  // warning it may come whenever it is worth most.
+  const looksOnly = (c: Check) => c.state === 'observe' && !c.running;
   const group = (c: Check): number => {
-    if (order === 'clear-fault-first') return c.state === 'isolated' ? (c.clearsFaultBeforeEnergising ? 0 : 1) : 2;
-    if (order === 'isolate-first') return c.state === 'isolated' ? 0 : 1;
+    if (opts.order === 'clear-fault-first') return c.state === 'isolated' ? (c.clearsFaultBeforeEnergising ? 0 : 1) : looksOnly(c) ? 1 : 2;
+    if (opts.order === 'isolate-first') return c.state === 'isolated' || looksOnly(c) ? 0 : 1;
+    if (opts.isolatedNow) return c.state === 'isolated' ? 0 : 1;
     return c.state === 'isolated' ? 1 : 0;
   };
-  return [...causesOf.keys()]
-    .filter((id) => byId.has(id))
+  const values = new Map([...causesOf.keys()].filter((id) => byId.has(id)).map((id) => [id, value(byId.get(id)!)]));
+  return [...values.keys()]
     .map((id) => ({ check: byId.get(id)!, causes: causesOf.get(id)! }))
-    .sort((a, b) => group(a.check) - group(b.check) || worth(b.check.id) - worth(a.check.id) || compareIds(a.check.id, b.check.id));
+    .sort((a, b) => group(a.check) - group(b.check) || values.get(b.check.id)! - values.get(a.check.id)! || compareIds(a.check.id, b.check.id));
 }

@@ -157,6 +157,27 @@ const outcome = z.strictObject({
   returnedToServiceBy: z.string().optional(),
 });
 
+export const CHECK_RESULTS = ['normal', 'abnormal', 'inconclusive'] as const;
+
+/** One check worked on the job, in the order worked: its result, what it measured and saw, who did it. */
+const workedCheck = z.strictObject({
+  id: z.string().regex(/^[a-z0-9][a-z0-9-]{0,79}$/, 'expected a check id of the rule folder in use').meta({ description: 'the check, by its id in checks.json' }),
+  result: z.enum(CHECK_RESULTS).meta({ description: 'normal: nothing wrong where the check looks; abnormal: it shows a fault; inconclusive' }),
+  readings: readingsSchema.optional().meta({ description: 'readings the check took, by the same names as the case file readings' }),
+  observations: observationsSchema.optional().meta({ description: 'what the check saw, by the same names as the case file observations' }),
+  finding: z.string().max(4000).optional(),
+  /** The fitter's own word that this check found the fault: the cause it confirms. */
+  confirms: safeId.optional().meta({ description: "the cause this check's finding confirms, in the fitter's judgement" }),
+  by: z.string().optional(),
+  at: z.string().optional(),
+  startedAt: z.string().optional(),
+  authorisedBy: z.string().optional(),
+  authorisation: z.enum(['present', 'remote']).optional(),
+  signedOffBy: z.string().optional(),
+  isolation: isolation.optional(),
+});
+export type WorkedCheck = z.output<typeof workedCheck>;
+
 export const caseSchema = z
   .strictObject({
     format: z.literal(CASE_FORMAT),
@@ -169,6 +190,7 @@ export const caseSchema = z
       .meta({ description: `zero or more of: ${Object.entries(SYMPTOMS).map(([k, v]) => `${k} (${v})`).join(', ')}` }),
     observations: observationsSchema.optional(),
     readings: readingsSchema.optional(),
+    checks: z.array(workedCheck).max(500).optional().meta({ description: 'the checks worked, in order, with their results: the troubleshooting record' }),
     outcome: outcome.optional(),
   })
   .meta({ id: 'dc-case-1', title: 'DC machine job (dc-case/1)' });

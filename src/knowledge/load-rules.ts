@@ -158,6 +158,15 @@ export function crossCheck(base: RuleBase): Issue[] {
     if (c.instead !== undefined && !checkIds.has(c.instead)) issues.push(issue(f('checks.json'), `${where}.instead`, `"${c.instead}" is not a check in checks.json`));
     if (c.instead !== undefined && !c.unsafeWhen) issues.push(issue(f('checks.json'), `${where}.instead`, 'a check offered instead needs unsafeWhen to say when'));
     if (c.unsafeWhen) issues.push(...checkCondition(c.unsafeWhen.condition, f('checks.json'), `${where}.unsafeWhen.condition`, derived, base.conditions));
+    c.takes?.readings?.forEach((r, j) => {
+      if (!(r in READING_FIELDS)) issues.push(issue(f('checks.json'), `${where}.takes.readings[${j}]`, `"${r}" is not a reading of dc-case/1`));
+    });
+    c.takes?.observations?.forEach((o, j) => {
+      if (!(o in OBSERVATIONS)) issues.push(issue(f('checks.json'), `${where}.takes.observations[${j}]`, `"${o}" is not an observation of dc-case/1`));
+    });
+    for (const cause of Object.keys(c.sensitivityFor ?? {})) {
+      if (!base.causes.some((x) => x.id === cause && x.checks.includes(c.id))) issues.push(issue(f('checks.json'), `${where}.sensitivityFor.${cause}`, `cause "${cause}" does not list check "${c.id}": a sensitivity is given only for a cause the check shows`));
+    }
     c.cautions?.forEach((caution, j) => {
       if (!hazardIds.has(caution.hazard)) issues.push(issue(f('checks.json'), `${where}.cautions[${j}].hazard`, `"${caution.hazard}" is not a hazard in safety.json`));
       issues.push(...checkCondition(caution.when, f('checks.json'), `${where}.cautions[${j}].when`, derived, base.conditions));

@@ -83,6 +83,20 @@ export const checkSchema = z.strictObject({
   instead: id.optional(),
   /** Hazards that apply only to some jobs (a suspended load, a differential compound machine). */
   cautions: z.array(z.strictObject({ when: conditionSchema, hazard: id })).optional(),
+  /**
+   * How reliably the check shows a cause it serves when that cause is present (0–1): a normal
+   * result weighs against the cause in proportion, an abnormal one for it. Absent: a default by
+   * the check's state (see src/engine/loop.ts). `sensitivityFor` sets it per cause.
+   */
+  sensitivity: z.number().gt(0).max(1).optional(),
+  sensitivityFor: z.record(id, z.number().gt(0).max(1)).optional(),
+  /** What the check measures or sees: the dialogue asks for these by name, with their units, when the check is done. */
+  takes: z
+    .strictObject({
+      readings: z.array(z.string().min(1)).min(1).optional(),
+      observations: z.array(z.string().min(1)).min(1).optional(),
+    })
+    .optional(),
 });
 /** A check no longer offered: its id stays reserved, so it is never reused for a different test. */
 const retiredCheck = z.strictObject({ id, replacedBy: id.optional(), why: z.string().min(1) });

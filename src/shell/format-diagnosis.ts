@@ -2,6 +2,7 @@
 import type { Diagnosis } from '../engine/diagnose.js';
 import { formatExpectation } from './format-expect.js';
 
+const RESULT_WORDS = { normal: 'normal', abnormal: 'ABNORMAL', inconclusive: 'inconclusive' } as const;
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'LIVE TEST (qualified person)', isolated: 'isolated' } as const;
 
 /** A warning by its severity: danger and caution read apart without colour too (the prefix), and stand out with it. */
@@ -27,13 +28,27 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
   }
   if (opts.readings !== false) parts.push('Readings against a healthy machine:\n' + formatExpectation(d.expectation, opts.width));
   if (opts.chart) parts.push(opts.chart);
-  if (d.checks.length) {
-    const title = new Map(d.causes.map((c) => [c.id, c.title]));
+  const title = new Map(d.causes.map((c) => [c.id, c.title]));
+  const worked = d.checks.filter((c) => c.result);
+  if (worked.length) {
+    parts.push(
+      'Checks worked:\n' +
+        worked.map((c, k) => `${String(k + 1).padStart(2)}. ${c.title} — ${RESULT_WORDS[c.result!]}${c.finding ? `: ${c.finding}` : ''}`).join('\n'),
+    );
+  }
+  if (d.found) {
+    parts.push(
+      `FOUND: ${d.found.title}. ${d.found.means}\nPut it right, then before it runs again:\n` + d.found.returnToService.map((s, k) => `  ${k + 1}. ${s}`).join('\n'),
+    );
+  }
+  const toDo = d.checks.filter((c) => !c.result);
+  if (toDo.length) {
     const lines: string[] = [];
-    d.checks.forEach((c, k) => {
+    toDo.forEach((c, j) => {
+      const k = worked.length + j;
       if (c.id === d.isolation.beforeCheck) {
         lines.push('   Before the next check, isolate:');
-        d.isolation.steps.forEach((s, j) => lines.push(`     ${String.fromCharCode(97 + j)}. ${s}`));
+        d.isolation.steps.forEach((s, i) => lines.push(`     ${String.fromCharCode(97 + i)}. ${s}`));
       }
       lines.push(`${String(k + 1).padStart(2)}. ${c.title} [${STATE_WORDS[c.state]}, ~${c.minutes} min] — for: ${c.causes.map((id) => title.get(id) ?? id).join('; ')}`);
       lines.push(`      ${c.how}`);
@@ -41,7 +56,12 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
       const hazards = c.hazardsSay.map((h) => h.split(':')[0]!.trim());
       if (hazards.length) lines.push(`      Take care: ${hazards.join('; ')}.`);
     });
-    parts.push('Checks, in order:\n' + lines.join('\n'));
+    parts.push((worked.length ? 'Checks still to do, the most useful first:\n' : 'Checks, in order:\n') + lines.join('\n'));
+  }
+  if (d.status === 'exhausted') {
+    parts.push(
+      'Not found: every check worth doing is done and no cause is confirmed. Next: specialist tests (a surge comparison or growler test of the armature, the drive maker\'s diagnostics, vibration analysis), a second opinion on the findings, and keep the job as an open case (save) so the next person starts from here.',
+    );
   }
   const notOffered = d.withheld.filter((w) => !w.instead);
   if (notOffered.length) parts.push('Not offered for this job:\n' + notOffered.map((w) => `  - ${w.title}: ${w.because}.`).join('\n'));
