@@ -20,7 +20,7 @@ import { replayCase } from './dialogue/replay.js';
 import { jobFromAnswers, parseDraft, type Answer } from './dialogue/job.js';
 import { outcomeOf } from './dialogue/outcome.js';
 import { ROLES, type Role } from './dialogue/work.js';
-import type { DialogueState } from './dialogue/reducer.js';
+import { latestDiagnosis, type DialogueState } from './dialogue/reducer.js';
 import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Session } from './shell/session.js';
 import { writeNewFile } from './shell/safe-write.js';
 import { fileCase } from './shell/file-case.js';
@@ -289,9 +289,9 @@ async function dialogue(
         color,
         chart: (job) => chartText({ machine: job.machine, readings: job.readings }, process.stdout.columns ?? 80, color),
         onAnswers: (answers, work) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work }),
-        onSave: (answers, outcome) => saveJob({ ...jobFromAnswers(answers, machineFile), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
+        onSave: (answers, outcome, work) => saveJob({ ...jobFromAnswers(answers, machineFile, work), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
         onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role),
-        onRecord: (answers, outcome) => recordJob({ ...jobFromAnswers(answers, machineFile), outcome: outcomeOf(outcome, today()) }, base.value, opts),
+        onRecord: (answers, outcome, work) => recordJob({ ...jobFromAnswers(answers, machineFile, work), outcome: outcomeOf(outcome, today()) }, base.value, opts),
       },
     };
   };
@@ -321,12 +321,12 @@ const useColor = () => !process.env.NO_COLOR && process.stdout.isTTY === true;
 
 /** The job report from the dialogue as it stands: the last result shown and the work done since. */
 async function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role): Promise<string> {
-  const draft = jobFromAnswers(state.answers, machineFile);
+  const draft = jobFromAnswers(state.answers, machineFile, state.work);
   const parsed = parseDraft(draft);
-  const result = [...state.log].reverse().find((e) => e.kind === 'result');
-  if (!parsed.ok || !result || result.kind !== 'result') return 'No report yet: the result is not on screen.';
+  const result = latestDiagnosis(state);
+  if (!parsed.ok || !result) return 'No report yet: the result is not on screen.';
   try {
-    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result.diagnosis, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd());
+    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd());
     return `Job report written to ${where}`;
   } catch (e) {
     return `Could not write the report: ${(e as Error).message}. The session is kept.`;

@@ -6,6 +6,7 @@
 import { caseSchema, CASE_FORMAT, type CaseFile, type CaseInput, type MachineFile } from '../knowledge/case-schema.js';
 import type { AnswerValue } from './answers.js';
 import type { Target } from './questions.js';
+import { checksFromWork, type WorkEntry } from './work.js';
 
 export interface Answer {
   questionId: string;
@@ -20,7 +21,7 @@ export interface Answer {
 type Draft = Omit<CaseInput, 'machine'> & { machine: Record<string, unknown> & { nameplate?: Record<string, unknown> } };
 
 /** The case file the answers make, the machine from a file underneath them. */
-export function jobFromAnswers(answers: readonly Answer[], machineFile?: unknown): Draft {
+export function jobFromAnswers(answers: readonly Answer[], machineFile?: unknown, work: readonly WorkEntry[] = []): Draft {
   const file = machineFile as (Record<string, unknown> & { nameplate?: Record<string, unknown> }) | undefined;
   // Fresh objects all the way down: the machine file is never written into.
   const draft: Draft = { format: CASE_FORMAT, machine: { ...file, ...(file?.nameplate ? { nameplate: { ...file.nameplate } } : {}) } };
@@ -42,6 +43,8 @@ export function jobFromAnswers(answers: readonly Answer[], machineFile?: unknown
     if (a.value.kind === 'unknown') delete obj[t.name];
     else obj[t.name] = a.value.kind === 'many' ? a.value.values : a.value.value;
   }
+  const checks = checksFromWork(work);
+  if (checks.length) (draft as Record<string, unknown>).checks = checks;
   return draft;
 }
 

@@ -11,15 +11,17 @@ import type { DialogueQuestion } from './questions.js';
 import { jobFromAnswers, parseDraft, type Answer } from './job.js';
 import { nextOutcomeQuestion, outcomeAnswerProblem } from './outcome.js';
 import { computeExpectations } from '../model/expected.js';
-import { entryFrom, forbidden, needsSupervisor, promptsFor, statusOf, workAnswerProblem, type WorkEntry, type WorkPrompt, type WorkRules } from './work.js';
+import { entryFrom, forbidden, needsSupervisor, pickWorkOption, promptsFor, statusOf, workAnswerProblem, type WorkEntry, type WorkPrompt, type WorkRules } from './work.js';
 
-export type Panel = 'why' | 'causes' | 'safety' | 'help';
+export type Panel = 'why' | 'causes' | 'safety' | 'help' | 'next';
 
 /** The transcript: append-only, so a terminal can print each entry once and never redraw it. */
 export type LogEntry =
   | { kind: 'answer'; answer: Answer }
   | { kind: 'withdrawn'; answer: Answer }
   | { kind: 'result'; diagnosis: Diagnosis; because: string }
+  /** The loop after a check's result: the ranking and the checks as they now stand, against the ones before. */
+  | { kind: 'update'; diagnosis: Diagnosis; previous: Diagnosis; check: string }
   | { kind: 'note'; text: string }
   /** A safety warning, logged the first time a diagnosis raises it, so it stays on screen. */
   | { kind: 'warning'; warning: Diagnosis['warnings'][number] }
@@ -50,6 +52,8 @@ export interface DialogueState {
   pendingWork?: { kind: WorkEntry['kind']; check: CheckResult; got: Partial<Record<WorkPrompt['id'], string>>; firstIsolated: boolean } | undefined;
   /** Said once with the next note. */
   notice?: string | undefined;
+  /** A check was just finished: the next diagnosis is shown as what changed. */
+  awaitingUpdate?: string | undefined;
   /** A reading far from the plate, held until the fitter says to keep it. */
   confirming?: { answer: Answer; says: string } | undefined;
 }
@@ -77,7 +81,8 @@ export const COMMANDS = {
   save: 'save the job as a case file (once the result is shown)',
   record: 'record the confirmed cause and the repair, and file the job as a case',
   'start N': 'start check N (an apprentice names the supervisor authorising it)',
-  'done N': 'finish check N with what you found (an apprentice names who signs it off)',
+  'done N': 'finish check N: its result, what it measured, what you found (an apprentice names who signs it off)',
+  next: 'the check to do next, after the results so far',
   report: 'write the job report',
   help: 'these commands',
 } as const;
@@ -94,7 +99,7 @@ function finish(state: DialogueState, because: string): DialogueState {
 }
 
 export function draftOf(state: DialogueState, ctx: DialogueContext) {
-  return jobFromAnswers(state.answers, ctx.machineFile);
+  return jobFromAnswers(state.answers, ctx.machineFile, state.work);
 }
 
 /** What the dialogue is doing now, derived from the answers and the current diagnosis. */
@@ -119,6 +124,9 @@ export function reduce(state: DialogueState, event: DialogueEvent, ctx: Dialogue
       const shown = new Set(state.log.flatMap((e) => (e.kind === 'warning' ? [e.warning.id] : [])));
       const fresh = event.diagnosis.warnings.filter((w) => !shown.has(w.id)).map((warning): LogEntry => ({ kind: 'warning', warning }));
       const next: DialogueState = { ...state, diagnosis: { version: event.version, value: event.diagnosis }, log: fresh.length ? [...state.log, ...fresh] : state.log };
+      if (next.phase === 'result' && next.awaitingUpdate) {
+        return { ...next, awaitingUpdate: undefined, log: [...next.log, { kind: 'update', diagnosis: event.diagnosis, previous: latestDiagnosis(state) ?? event.diagnosis, check: next.awaitingUpdate }] };
+      }
       if (next.phase === 'finishing') return finish(next, next.endedBecause ?? 'you asked for the result');
       if (next.phase === 'asking') {
         const step = currentStep(next, ctx);
@@ -148,10 +156,10 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
     if (!last) return { ...base, error: 'nothing to go back to yet' };
     return withAnswers({ ...base, phase: 'asking', endedBecause: undefined, log: [...state.log, { kind: 'withdrawn', answer: last }] }, state.answers.slice(0, -1));
   }
-  if (word === 'why' || word === 'causes' || word === 'safety' || word === 'help') {
+  if (word === 'why' || word === 'causes' || word === 'safety' || word === 'help' || (word === 'next' && state.phase === 'result')) {
     // Panels go into the transcript, not the live area: a tall live area makes the terminal redraw everything.
     const step = state.phase === 'asking' ? currentStep(state, ctx) : undefined;
-    const diagnosis = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
+    const diagnosis = word === 'next' ? latestDiagnosis(state) : state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
     return { ...base, log: [...state.log, { kind: 'panel', which: word, diagnosis, question: step?.kind === 'ask' ? step.question : undefined }] };
   }
   if (state.phase === 'recording') return onOutcomeInput(base, text, word, at, ctx);
@@ -185,13 +193,18 @@ function farFromPlate(state: DialogueState, answer: Answer, ctx: DialogueContext
 
 const DEFAULT_WORK_RULES: WorkRules = { role: 'fitter', apprenticesMayTestLive: true };
 
-/** The checks of the result on screen. */
-export function resultChecks(state: DialogueState): CheckResult[] {
+/** The diagnosis of the result on screen: the last result, or the last update after a check. */
+export function latestDiagnosis(state: DialogueState): Diagnosis | undefined {
   for (let k = state.log.length - 1; k >= 0; k--) {
     const e = state.log[k]!;
-    if (e.kind === 'result') return e.diagnosis.checks;
+    if (e.kind === 'result' || e.kind === 'update') return e.diagnosis;
   }
-  return [];
+  return undefined;
+}
+
+/** The checks of the result on screen, numbered as shown: those worked first, then the ones still to do. */
+export function resultChecks(state: DialogueState): CheckResult[] {
+  return latestDiagnosis(state)?.checks ?? [];
 }
 
 /** Who is doing the work: the name given for the job, else "the fitter". */
@@ -223,7 +236,17 @@ function beginWork(state: DialogueState, kind: WorkEntry['kind'], n: number, at:
 export function workPrompt(state: DialogueState, ctx: DialogueContext): WorkPrompt | undefined {
   const p = state.pendingWork;
   if (!p) return undefined;
-  return promptsFor(p.kind, needsSupervisor(ctx.work ?? DEFAULT_WORK_RULES, p.check), p.firstIsolated).find((x) => p.got[x.id] === undefined);
+  return promptsFor(p.kind, needsSupervisor(ctx.work ?? DEFAULT_WORK_RULES, p.check), p.firstIsolated, doneContext(state, p.check, p.got, ctx)).find((x) => p.got[x.id] === undefined);
+}
+
+/** What finishing this check asks: what it takes, and the causes an abnormal result could confirm. */
+function doneContext(state: DialogueState, check: CheckResult, got: Partial<Record<string, string>>, ctx: DialogueContext) {
+  const inPlay = latestDiagnosis(state)?.causes ?? [];
+  return {
+    check: ctx.flow.base.checks.find((c) => c.id === check.id),
+    confirmable: inPlay.filter((c) => check.causes.includes(c.id)).map((c) => ({ value: c.id, label: c.title })),
+    got,
+  };
 }
 
 function onWorkPrompt(state: DialogueState, text: string, word: string, at: string, ctx: DialogueContext): DialogueState {
@@ -233,16 +256,28 @@ function onWorkPrompt(state: DialogueState, text: string, word: string, at: stri
   if (!prompt) return { ...state, pendingWork: undefined };
   const problem = workAnswerProblem(prompt, text, { worker: workerOf(state, ctx), rules: ctx.work ?? DEFAULT_WORK_RULES });
   if (problem) return { ...state, error: problem };
-  const got = { ...p.got, [prompt.id]: text };
+  const got = { ...p.got, [prompt.id]: workValue(prompt, text) };
   const next = { ...state, pendingWork: { ...p, got } };
   return workPrompt(next, ctx) ? next : finishWork(next, p.kind, p.check, got, at, ctx);
 }
 
-function finishWork(state: DialogueState, kind: WorkEntry['kind'], check: CheckResult, got: Partial<Record<WorkPrompt['id'], string>>, at: string, ctx: DialogueContext): DialogueState {
+/** An answer as it is kept: a choice by its value, a bare reading in the unit the prompt shows. */
+function workValue(prompt: WorkPrompt, text: string): string {
+  if (text === '') return '';
+  if (prompt.options && prompt.id !== 'authorisation') return pickWorkOption(prompt, text) ?? text;
+  const unit = /\(in ([^;)]+)/.exec(prompt.prompt)?.[1];
+  if (prompt.id.startsWith('reading:') && /^[+-]?[\d.,]+$/.test(text) && unit) return `${text} ${unit}`;
+  return text;
+}
+
+function finishWork(state: DialogueState, kind: WorkEntry['kind'], check: CheckResult, got: Partial<Record<string, string>>, at: string, ctx: DialogueContext): DialogueState {
   const entry = entryFrom(kind, check.id, workerOf(state, ctx), at, got);
   const who = entry.authorisedBy ? `, authorised by ${entry.authorisedBy} (${entry.authorisation})` : entry.signedOffBy ? `, signed off by ${entry.signedOffBy}` : '';
-  const text = `${kind === 'started' ? 'Started' : 'Done'}: ${check.title} — ${entry.by}, ${at.slice(11, 16)}${who}${entry.finding ? `; found: ${entry.finding}` : ''}.${state.notice ?? ''}`;
-  return { ...state, pendingWork: undefined, notice: undefined, work: [...state.work, entry], log: [...state.log, { kind: 'note', text }] };
+  const result = entry.result ? ` — ${entry.result.toUpperCase()}` : '';
+  const text = `${kind === 'started' ? 'Started' : 'Done'}: ${check.title}${result} — ${entry.by}, ${at.slice(11, 16)}${who}${entry.finding ? `; found: ${entry.finding}` : ''}.${state.notice ?? ''}`;
+  const next: DialogueState = { ...state, pendingWork: undefined, notice: undefined, work: [...state.work, entry], log: [...state.log, { kind: 'note', text }] };
+  // A result changes the job: diagnose again, and show what changed when it comes.
+  return entry.result ? { ...next, version: state.version + 1, awaitingUpdate: check.id } : next;
 }
 
 /** The recording questions: back steps back within them; the last answer files the case. */

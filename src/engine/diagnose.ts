@@ -66,6 +66,8 @@ export interface Diagnosis {
   confirmed: string | null;
   /** The check to do next; null when none is left or the fault is confirmed. */
   next: string | null;
+  /** What each worked check's result weighed, for and against which causes, in the order worked. */
+  effects: { check: string; effects: { cause: string; title: string; weight: number }[] }[];
   /** Once confirmed: what was found, what it means for the repair, and the return-to-service steps. */
   found: { cause: string; title: string; means: string; returnToService: string[] } | null;
   warnings: { id: string; says: string; severity: 'danger' | 'caution' }[];
@@ -135,7 +137,13 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
     else ruleScores.set(cause.id, combineAll((weights.get(cause.id) ?? []).map((e) => e.weight)));
   }
   // Then what the checks found, in the order they were worked.
-  for (const [cause, evidence] of resultEvidence(worked, checkById, shows, ruleScores)) weights.set(cause, [...(weights.get(cause) ?? []), ...evidence]);
+  const fromResults = resultEvidence(worked, checkById, shows, ruleScores);
+  for (const [cause, evidence] of fromResults) weights.set(cause, [...(weights.get(cause) ?? []), ...evidence]);
+  const titleOf = new Map(base.causes.map((c) => [c.id, c.title]));
+  const effects = worked.map((w) => ({
+    check: w.id,
+    effects: [...fromResults].flatMap(([cause, evidence]) => evidence.filter((e) => e.rule === `check:${w.id}`).map((e) => ({ cause, title: titleOf.get(cause) ?? cause, weight: e.weight }))),
+  }));
   const causes: RankedCauseResult[] = [];
   const scores = new Map<string, number>();
   for (const cause of base.causes) {
@@ -210,6 +218,7 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
     status,
     confirmed: confirmed ?? null,
     next: remaining[0]?.id ?? null,
+    effects,
     found: confirmed
       ? { cause: confirmed, title: catalogue.get(confirmed)!.title, means: catalogue.get(confirmed)!.description, returnToService: base.safety.returnToService.map((r) => r.says) }
       : null,

@@ -7,7 +7,8 @@ import * as z from 'zod';
 function unwrap(s: z.ZodType): z.ZodType {
   for (;;) {
     if (s instanceof z.ZodOptional || s instanceof z.ZodNullable || s instanceof z.ZodDefault) s = s.unwrap() as z.ZodType;
-    else if (s instanceof z.ZodPipe) s = s.in as z.ZodType;
+    // A preprocess (a transform in front of a schema) keeps its shape on the out side.
+    else if (s instanceof z.ZodPipe) s = (s.in instanceof z.ZodTransform ? s.out : s.in) as z.ZodType;
     else if (s instanceof z.ZodLazy) s = s.unwrap() as z.ZodType;
     else return s;
   }

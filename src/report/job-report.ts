@@ -24,6 +24,8 @@ export interface ReportInput {
   timeZone?: string;
   /** Where an SVG of the characteristic sits beside the report, when there is one. */
   chartFile?: string;
+  /** Titles of causes not in the ranking, for checks that name them. */
+  causeTitles?: ReadonlyMap<string, string>;
 }
 
 const UNIT: Record<string, string> = { degC: '°C', ohm: 'Ω', Mohm: 'MΩ', '1': '', 'N m': 'N·m' };
@@ -114,27 +116,54 @@ export function jobReport(r: ReportInput): string {
   });
   lines.push('');
 
-  lines.push('## Checks, in order', '');
   const work = r.work ?? [];
   const iso = r.safety.isolation;
-  d.checks.forEach((c, k) => {
-    if (c.id === d.isolation.beforeCheck) {
-      lines.push(`**Before check ${k + 1}, isolate** (${iso.source}):`, '');
-      d.isolation.steps.forEach((s, i) => lines.push(`   ${i + 1}. ${s}`));
-      lines.push('');
-    }
-    const started = work.find((w) => w.check === c.id && w.kind === 'started');
-    const done = work.find((w) => w.check === c.id && w.kind === 'done');
-    lines.push(`${k + 1}. **${c.title}** — ${STATE_WORDS[c.state]}, about ${c.minutes} min; for: ${c.causes.map((id) => causeTitle.get(id) ?? id).join('; ')}`);
-    lines.push(`   - How: ${c.how} Instrument: ${c.instrument}.`);
-    const hazards = c.hazards.map((h) => r.safety.hazards.find((x) => x.id === h)?.says).filter(Boolean);
-    if (hazards.length) lines.push(`   - Hazards: ${hazards.join(' ')}`);
-    if (started) lines.push(`   - ${sentence(`Started ${when(started.at)} by ${esc(started.by)}${started.authorisedBy ? `, authorised by ${esc(started.authorisedBy)} (${started.authorisation === 'remote' ? 'remotely, not present' : 'present at the machine'})` : r.role === 'apprentice' ? ', looking only: no authorisation needed' : `, on the ${r.role ?? 'fitter'}'s own authority`}`)}`);
-    if (done) lines.push(`   - ${sentence(`Done ${when(done.at)} by ${esc(done.by)}${done.signedOffBy ? `, signed off by ${esc(done.signedOffBy)}` : ''}`)}${done.finding ? ` Found: ${sentence(esc(done.finding))}` : ''}`);
-    if (!started && !done) lines.push('   - Not done.');
-  });
-  if (!d.checks.length) lines.push('No checks: no cause stood out.');
+  const workedRecords = job.checks ?? [];
+  const worked = d.checks.filter((c) => c.result);
+  const titleOf = (id: string) => causeTitle.get(id) ?? r.causeTitles?.get(id) ?? id;
+  if (worked.length) {
+    lines.push('## The checks worked, in order', '');
+    worked.forEach((c, k) => {
+      const w = workedRecords.filter((x) => x.id === c.id).at(-1);
+      lines.push(`${k + 1}. **${c.title}** — ${STATE_WORDS[c.state]}: **${c.result}**${c.finding ? `. Found: ${sentence(esc(c.finding))}` : ''}`);
+      if (w?.startedAt || w?.at) lines.push(`   - ${sentence(`${w.startedAt ? `Started ${when(w.startedAt)}, ` : ''}done ${w.at ? when(w.at) : ''} by ${esc(w.by ?? 'not named')}${w.authorisedBy ? `, authorised by ${esc(w.authorisedBy)} (${w.authorisation === 'remote' ? 'remotely, not present' : 'present at the machine'})` : r.role === 'apprentice' && c.state === 'observe' ? ', looking only: no authorisation needed' : `, on the ${r.role ?? 'fitter'}'s own authority`}${w.signedOffBy ? `; signed off by ${esc(w.signedOffBy)}` : ''}`)}`);
+      const readings = Object.entries(w?.readings ?? {}).filter(([, v]) => v !== undefined);
+      if (readings.length) lines.push(`   - Readings: ${readings.map(([name, v]) => `${name.replace(/([A-Z])/g, ' $1').toLowerCase()} ${typeof v === 'number' ? n(v) : cell(String(v))}`).join('; ')}`);
+      const observed = Object.entries(w?.observations ?? {}).filter(([, v]) => v !== undefined && v !== 'unknown');
+      if (observed.length) lines.push(`   - Saw: ${observed.map(([name, v]) => `${OBSERVATIONS[name as ObservationName]?.says ?? name}: ${OBSERVATIONS[name as ObservationName]?.values[v as never] ?? v}`).join('; ')}`);
+      const effect = d.effects.find((e) => e.check === c.id)?.effects ?? [];
+      const moved = effect.filter((e) => Math.abs(e.weight) >= 0.1).sort((a, b) => b.weight - a.weight);
+      if (moved.length) lines.push(`   - It weighed ${moved.map((e) => `${e.weight > 0 ? 'for' : 'against'} ${e.title} (${e.weight > 0 ? '+' : '−'}${Math.abs(e.weight).toFixed(2)})`).join(', ')}.`);
+    });
+    lines.push('');
+  }
+  lines.push('## What was found', '');
+  if (d.found) lines.push(`**${d.found.title}**, confirmed by the checks. ${d.found.means}`);
+  else if (d.status === 'exhausted') lines.push('**Not found**: every check worth doing was done and no cause was confirmed. Specialist tests and a second opinion are the next step; the job is kept as an open case.');
+  else lines.push(`Not yet confirmed: ${worked.length ? `${worked.length} check${worked.length > 1 ? 's' : ''} worked, ` : ''}${d.checks.length - worked.length} still to do.`);
   lines.push('');
+
+  const toDo = d.checks.filter((c) => !c.result);
+  if (toDo.length) {
+    lines.push(worked.length ? '## Checks still to do, the most useful first' : '## Checks, in order', '');
+    toDo.forEach((c, j) => {
+      const k = worked.length + j;
+      if (c.id === d.isolation.beforeCheck) {
+        lines.push(`**Before check ${k + 1}, isolate** (${iso.source}):`, '');
+        d.isolation.steps.forEach((s, i) => lines.push(`   ${i + 1}. ${s}`));
+        lines.push('');
+      }
+      const started = work.find((w) => w.check === c.id && w.kind === 'started');
+      lines.push(`${k + 1}. **${c.title}** — ${STATE_WORDS[c.state]}, about ${c.minutes} min; for: ${c.causes.map(titleOf).join('; ')}`);
+      lines.push(`   - How: ${c.how} Instrument: ${c.instrument}.`);
+      const hazards = c.hazards.map((h) => r.safety.hazards.find((x) => x.id === h)?.says).filter(Boolean);
+      if (hazards.length) lines.push(`   - Hazards: ${hazards.join(' ')}`);
+      if (started) lines.push(`   - ${sentence(`Started ${when(started.at)} by ${esc(started.by)}${started.authorisedBy ? `, authorised by ${esc(started.authorisedBy)} (${started.authorisation === 'remote' ? 'remotely, not present' : 'present at the machine'})` : r.role === 'apprentice' ? ', looking only: no authorisation needed' : `, on the ${r.role ?? 'fitter'}'s own authority`}`)}`);
+      else lines.push('   - Not done.');
+    });
+    lines.push('');
+  }
+  if (!d.checks.length) lines.push('No checks: no cause stood out.', '');
 
   lines.push('## Safety notices shown', '');
   lines.push(`- ${r.safety.notice}`);

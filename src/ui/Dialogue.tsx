@@ -15,6 +15,7 @@ import type { CaseFile } from '../knowledge/case-schema.js';
 import type { Answer } from '../dialogue/job.js';
 import type { Diagnosis } from '../engine/diagnose.js';
 import { formatDiagnosis, warningLine } from '../shell/format-diagnosis.js';
+import { formatLoopUpdate, formatNext } from '../shell/format-loop.js';
 import { whyAsked } from '../dialogue/why.js';
 import { useLineInput } from './use-line-input.js';
 
@@ -28,9 +29,9 @@ export interface DialogueProps {
   /** Called after every change of answers or of checks worked: the shell saves the session. */
   onAnswers?: (answers: Answer[], work: WorkEntry[]) => void;
   /** Saves the job, with the outcome recorded so far; returns the words to show (where it went, or why not). */
-  onSave?: (answers: Answer[], outcome: Answer[]) => string;
+  onSave?: (answers: Answer[], outcome: Answer[], work: WorkEntry[]) => string;
   /** Files the job with its recorded outcome as a case; returns the words to show. */
-  onRecord?: (answers: Answer[], outcome: Answer[]) => string;
+  onRecord?: (answers: Answer[], outcome: Answer[], work: WorkEntry[]) => string;
   /** Writes the job report; resolves to the words to show. */
   onReport?: (state: DialogueState) => Promise<string>;
   onInterrupt?: () => void;
@@ -86,7 +87,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
     if (r === 'report') {
       if (onReport) void onReport(state).then((message) => dispatch({ type: 'saved', message }));
       else dispatch({ type: 'saved', message: 'reports are not available here' });
-    } else dispatch({ type: 'saved', message: handler ? handler(state.answers, state.outcome) : `${r} is not available here` });
+    } else dispatch({ type: 'saved', message: handler ? handler(state.answers, state.outcome, state.work) : `${r} is not available here` });
   }, [state.request]);
   const recording = state.phase === 'recording' ? outcomeStep(state, ctx) : undefined;
   const working = workPrompt(state, ctx);
@@ -109,8 +110,9 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
       if (e.kind === 'note') return { key: `l${k}`, text: e.text, tone: 'answer' };
       if (e.kind === 'warning') return { key: `l${k}`, text: warningLine(e.warning), tone: e.warning.severity };
       if (e.kind === 'panel') return { key: `l${k}`, text: panelText(e.which, e.question, ctx, e.diagnosis, safetyNotice, width), tone: 'muted' };
+      if (e.kind === 'update') return { key: `l${k}`, text: formatLoopUpdate(e.previous, e.diagnosis, e.check), ...(e.diagnosis.found ? { tone: 'caution' as const } : {}) };
       const job = parseDraft(draftOf(state, ctx));
-      return { key: `l${k}`, text: `${formatDiagnosis(e.diagnosis, { width, chart: job.ok && chart ? chart(job.job) : undefined })}\n\nQuestions ended: ${e.because}.` };
+      return { key: `l${k}`, text: `${formatDiagnosis(e.diagnosis, { width, chart: job.ok && chart ? chart(job.job) : undefined })}\n\nQuestions ended: ${e.because}.\n\n${formatNext(e.diagnosis)}` };
     }),
   ];
   const leaders = diagnosis?.causes.slice(0, 3) ?? [];
@@ -130,8 +132,8 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
       {state.phase === 'finishing' && <Text>Working out the result…</Text>}
       {state.phase === 'result' && !working && (
         <Text>
-          Checks: {resultChecks(state).map((c, k) => `${k + 1} ${statusOf(state.work, c.id) === 'done' ? 'done' : statusOf(state.work, c.id) === 'started' ? 'started' : '–'}`).join(' · ')}{'\n'}
-          Type start N / done N as you work the checks, report for the job report, record to file the job with the cause you confirmed, save to keep it as it stands, back to change the last answer, or Ctrl-C to leave (the session is kept).
+          Checks: {resultChecks(state).map((c, k) => `${k + 1} ${c.result ?? (statusOf(state.work, c.id) === 'started' ? 'started' : '–')}`).join(' · ')}{'\n'}
+          Type start N / done N as you work the checks (done asks the result), next for the next check, report for the job report, record to file the job with the cause you confirmed, save to keep it as it stands, back to change the last answer, or Ctrl-C to leave (the session is kept).
           {ctx.work?.role === 'lead' ? '\nAs lead: record files the job in the cases folder; then dctriage rules draft --from-case FILE proposes a rule from it, and dctriage review FILE --close NAME closes a saved job.' : ''}
         </Text>
       )}
@@ -172,6 +174,7 @@ function panelText(which: string, question: DialogueQuestion | undefined, ctx: D
     const connection = typeof machine?.connection === 'string' ? machine.connection : 'unknown';
     return [safetyNotice, 'To isolate:', ...isolationSteps(iso, drive, connection).map((s, k) => `${k + 1}. ${s}`)].join('\n');
   }
+  if (which === 'next') return diagnosis ? formatNext(diagnosis) : 'No result yet: type done to finish the questions first.';
   if (which === 'help') return [...Object.entries(COMMANDS).map(([w, says]) => `${w.padEnd(8)} ${says}`), 'Choices: their number or word. Quantities: as the meter reads, e.g. 14,5 V or 1450 rpm.'].join('\n');
   if (which === 'causes') return diagnosis ? formatDiagnosis({ ...diagnosis, checks: [] }, { readings: false, width }) : "No ranking yet: the machine's connection is needed first.";
   return question ? whyAsked(question, ctx.flow, diagnosis) : 'No question is waiting.';

@@ -6,18 +6,21 @@ import { diagnose } from '../../src/engine/diagnose.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
 import { jobReport } from '../../src/report/job-report.js';
 import { QUANTITY_LABELS, type QuantityName } from '../../src/model/quantity-names.js';
-import type { WorkEntry } from '../../src/dialogue/work.js';
+import { checksFromWork, type WorkEntry } from '../../src/dialogue/work.js';
+import { caseSchema } from '../../src/knowledge/case-schema.js';
 import { builtInRules, CASES_DIR, diagnoseJob } from '../support/rules.js';
 
 const base = builtInRules();
 const engine = buildEngine(base);
 
+/** A recorded job's report; given a work log, the job's checks are the ones that log records, as in the dialogue. */
 async function reportFor(name: string, work: WorkEntry[] = [], timeZone?: string) {
   const file = join(CASES_DIR, name);
   const c = loadCase(file);
   if (!c.ok) throw new Error(name);
-  const d = await diagnose(c.value, base, engine);
-  return { d, text: jobReport({ job: c.value, raw: JSON.parse(readFileSync(file, 'utf8')), diagnosis: d, safety: base.safety, work, generatedAt: '2026-12-01T21:00:00Z', ...(timeZone ? { timeZone } : {}) }) };
+  const job = work.length ? caseSchema.parse({ ...JSON.parse(readFileSync(file, 'utf8')), checks: checksFromWork(work) }) : c.value;
+  const d = await diagnose(job, base, engine);
+  return { d, text: jobReport({ job, raw: JSON.parse(readFileSync(file, 'utf8')), diagnosis: d, safety: base.safety, work, generatedAt: '2026-12-01T21:00:00Z', ...(timeZone ? { timeZone } : {}) }) };
 }
 
 describe('the job report', () => {
@@ -38,20 +41,21 @@ describe('the job report', () => {
     expect(text).not.toMatch(/for: [a-z]+-[a-z-]+$/m);
   });
 
-  it('lists authorisations and sign-offs with their times', async () => {
-    const { d } = await reportFor('2026-10-14-press-feed-field-weak.json');
-    const check = d.checks.find((c) => c.state === 'isolated')!;
+  it('tells the checks worked in order: who, when, how authorised, the result and what it found, then what was found', async () => {
     const work: WorkEntry[] = [
-      { check: check.id, kind: 'started', at: '2026-12-01T21:05:00Z', by: 'T. Apprentice', authorisedBy: 'R. Lead', authorisation: 'present', isolation: { provedDeadBy: 'R. Lead', locks: 'L-12' } },
-      { check: check.id, kind: 'done', at: '2026-12-01T21:25:00Z', by: 'T. Apprentice', signedOffBy: 'R. Lead', finding: 'rheostat track burnt' },
+      { check: 'iso-field-continuity', kind: 'started', at: '2026-12-01T21:05:00Z', by: 'T. Apprentice', authorisedBy: 'R. Lead', authorisation: 'present', isolation: { provedDeadBy: 'R. Lead', locks: 'L-12' } },
+      { check: 'iso-field-continuity', kind: 'done', at: '2026-12-01T21:25:00Z', by: 'T. Apprentice', signedOffBy: 'R. Lead', finding: 'rheostat track burnt', result: 'abnormal' },
     ];
     const { text } = await reportFor('2026-10-14-press-feed-field-weak.json', work);
-    expect(text).toContain('Started 2026-12-01 21:05 UTC by T. Apprentice, authorised by R. Lead (present at the machine).');
-    expect(text).toContain('Done 2026-12-01 21:25 UTC by T. Apprentice, signed off by R. Lead. Found: rheostat track burnt.');
+    expect(text).toContain('## The checks worked, in order');
+    expect(text).toContain('1. **Check the field circuit for continuity** — isolated (after isolation and lockout): **abnormal**. Found: rheostat track burnt.');
+    expect(text).toContain('Started 2026-12-01 21:05 UTC, done 2026-12-01 21:25 UTC by T. Apprentice, authorised by R. Lead (present at the machine); signed off by R. Lead.');
+    expect(text).toMatch(/It weighed for Field weak \(\+0\.\d\d\)/);
+    expect(text).toContain('**Field weak**, confirmed by the checks.');
     expect(text).toContain('| Proved dead by | R. Lead |');
     // Where the job was done, the times are local with UTC beside them (IANA: Berlin is UTC+1 in December).
     const { text: local } = await reportFor('2026-10-14-press-feed-field-weak.json', work, 'Europe/Berlin');
-    expect(local).toContain('Started 2026-12-01 22:05 UTC+1 (21:05 UTC) by T. Apprentice');
+    expect(local).toContain('Started 2026-12-01 22:05 UTC+1 (21:05 UTC), done');
     expect(local).toContain('| Report written | 2026-12-01 22:00 UTC+1 (21:00 UTC) |');
     expect(text).toContain('not verify them');
   });

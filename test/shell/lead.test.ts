@@ -20,7 +20,7 @@ describe('dctriage cases add', () => {
     expect(r.code).toBe(0);
     expect(jsonFiles(dir)).toEqual(['2026-10-14-press-feed-field-weak.json']);
     const text = readFileSync(join(dir, '2026-10-14-press-feed-field-weak.json'), 'utf8');
-    expect(Object.keys(JSON.parse(text))).toEqual(['format', 'id', 'job', 'machine', 'symptoms', 'observations', 'readings', 'outcome']);
+    expect(Object.keys(JSON.parse(text))).toEqual(['format', 'id', 'job', 'machine', 'symptoms', 'observations', 'readings', 'checks', 'outcome']);
     expect(text).toMatch(/^\{\n {2}"format": "dc-case\/1",\n {2}"id"/);
   });
 
