@@ -67,7 +67,7 @@ export interface Diagnosis {
   /** The check to do next; null when none is left or the fault is confirmed. */
   next: string | null;
   /** What each worked check's result weighed, for and against which causes, in the order worked. */
-  effects: { check: string; effects: { cause: string; title: string; weight: number }[] }[];
+  effects: { check: string; effects: { cause: string; title: string; weight: number; says: string }[] }[];
   /** Once confirmed: what was found, what it means for the repair, and the return-to-service steps. */
   found: { cause: string; title: string; means: string; returnToService: string[] } | null;
   warnings: { id: string; says: string; severity: 'danger' | 'caution' }[];
@@ -142,7 +142,7 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
   const titleOf = new Map(base.causes.map((c) => [c.id, c.title]));
   const effects = worked.map((w) => ({
     check: w.id,
-    effects: [...fromResults].flatMap(([cause, evidence]) => evidence.filter((e) => e.rule === `check:${w.id}`).map((e) => ({ cause, title: titleOf.get(cause) ?? cause, weight: e.weight }))),
+    effects: [...fromResults].flatMap(([cause, evidence]) => evidence.filter((e) => e.rule === `check:${w.id}`).map((e) => ({ cause, title: titleOf.get(cause) ?? cause, weight: e.weight, says: e.says }))),
   }));
   const causes: RankedCauseResult[] = [];
   const scores = new Map<string, number>();

@@ -18,7 +18,11 @@ export function formatLoopUpdate(previous: Diagnosis, now: Diagnosis, checkId: s
     .sort((a, b) => Math.abs(b.to - b.from) - Math.abs(a.to - a.from))
     .slice(0, 5);
   for (const c of changed) {
-    const why = after.get(c.id)?.evidence.find((e) => e.rule === `check:${checkId}`)?.says ?? (c.to <= 0 ? 'cleared by the result' : '');
+    // What the check's readings made the rules say, else the result's own weight.
+    const said = new Set(previous.causes.find((x) => x.id === c.id)?.evidence.map((e) => e.says) ?? []);
+    const fromReadings = after.get(c.id)?.evidence.find((e) => !e.rule.startsWith('check:') && !said.has(e.says))?.says;
+    const fromResult = now.effects.filter((e) => e.check === checkId).flatMap((e) => e.effects).find((e) => e.cause === c.id)?.says;
+    const why = [fromReadings, fromResult].filter(Boolean).join('; ');
     lines.push(`  ${c.to > c.from ? '↑ rises' : '↓ falls'}: ${titles.get(c.id)} ${c.from.toFixed(2)} → ${c.to > 0 ? c.to.toFixed(2) : 'out of the running'}${why ? ` — ${why}` : ''}`);
   }
   if (changed.length === 0) lines.push('  The ranking did not move.');

@@ -128,6 +128,11 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
       {state.phase === 'asking' && !state.confirming && step.kind === 'ask' && <QuestionView question={step.question} firstIsolated={step.question.state === 'isolated' && !state.answers.some((a) => ctx.flow.all.get(a.questionId)?.state === 'isolated')} ctx={ctx} color={color} />}
       {recording && <QuestionView question={recording} firstIsolated={false} ctx={ctx} color={color} />}
       {working && <Text bold>? {state.pendingWork!.check.title}: {working.prompt}</Text>}
+      {working?.options && (
+        <Box flexWrap="wrap" columnGap={2}>
+          {working.options.map((o, k) => <Text key={o.value}>{k + 1} {o.label}</Text>)}
+        </Box>
+      )}
       {state.phase === 'asking' && step.kind === 'needs-diagnosis' && <Text>Working out the next question…</Text>}
       {state.phase === 'finishing' && <Text>Working out the result…</Text>}
       {state.phase === 'result' && !working && (

@@ -157,10 +157,15 @@ describe('the dialogue', () => {
     const flat = () => d.screen().replace(/\s+/g, ' ');
     expect(flat()).toMatch(/Started: .+ — A\. Fitter, \d\d:\d\d, authorised by R\. Lead \(present\)/);
     await d.type(`done ${isolated}`);
+    await d.type('abnormal');
+    for (let k = 0; k < 8 && !/What did you find/.test(d.lastFrame() ?? ''); k++) await d.type('');
     await d.type('found the rheostat track burnt');
+    if (/Does this find the fault/.test(d.lastFrame() ?? '')) await d.type('');
     expect(d.lastFrame()).toContain('Supervisor signing it off');
+    await d.type('A. Fitter'); // the apprentice cannot sign off their own work
+    expect(d.lastFrame()).toContain('the supervisor must be someone other than you');
     await d.type('R. Lead');
-    expect(flat()).toMatch(/Done: .+ — A\. Fitter, \d\d:\d\d, signed off by R\. Lead; found: found the rheostat track burnt/);
+    expect(flat()).toMatch(/Done: .+ — ABNORMAL — A\. Fitter, \d\d:\d\d, signed off by R\. Lead; found: found the rheostat track burnt/);
     d.unmount();
   });
 

@@ -68,3 +68,54 @@ describe('safety in the dialogue', () => {
     d.unmount();
   });
 });
+
+describe('the troubleshooting loop in the dialogue', () => {
+  it('asks a check its result, its readings by name with units and a finding, then shows what changed and the next check', async () => {
+    const d = renderDialogue();
+    await openJob(d, 'stopped', '4 9'); // slow and cannot pull its load
+    await d.type('done');
+    const result = d.screen();
+    expect(result).toContain('Checks, in order:');
+    expect(result).toMatch(/Next: check 1, /);
+    // Work whichever check the tool names first.
+    const first = /Next: check 1, ([^[]+) \[/.exec(result)![1]!.trim();
+    await d.type('start 1');
+    for (let k = 0; k < 6 && /\? .*(Isolation points|Lock and tag|proved it dead|voltage tester)/.test(d.lastFrame() ?? ''); k++) await d.type('x');
+    await d.type('done 1');
+    expect(d.lastFrame()).toContain('Result?');
+    expect(d.lastFrame()).toMatch(/1 normal.*2 abnormal.*3 inconclusive/s);
+    await d.type('maybe');
+    expect(d.lastFrame()).toContain('is not one of the choices');
+    await d.type('normal');
+    // Whatever the check measures is asked by name with its unit; Enter skips.
+    for (let k = 0; k < 8 && !/What did you find/.test(d.lastFrame() ?? ''); k++) await d.type('');
+    expect(d.lastFrame()).toContain('What did you find');
+    await d.type('nothing out of the ordinary');
+    const after = d.screen().replace(/\s+/g, ' ');
+    expect(after).toContain(`After "${first}" (normal):`);
+    expect(after).toMatch(/↓ falls: .* — .*: normal: nothing out of the ordinary — it shows this fault \d+ % of the time/);
+    expect(after).toMatch(/Next: check 2, /);
+    d.unmount();
+  });
+
+  it('takes a reading a check measures, in the unit the prompt shows, into the model', async () => {
+    const d = renderDialogue();
+    await openJob(d, 'stopped', '4 9');
+    await d.type('done');
+    const screen = d.screen();
+    const n = screen.split('\n').find((l) => /^ *\d+\. Measure armature voltage and current under load/.test(l));
+    if (!n) return d.unmount(); // the first list does not hold it for this job: nothing to try here
+    const k = /^ *(\d+)\./.exec(n)![1]!;
+    await d.type(`start ${k}`);
+    await d.type(`done ${k}`);
+    await d.type('abnormal');
+    expect((d.lastFrame() ?? '').replace(/\s+/g, ' ')).toMatch(/machine's terminal voltage\? \(in V; Enter to skip\)/i);
+    await d.type('330');
+    for (let k = 0; k < 8 && !/What did you find/.test(d.lastFrame() ?? ''); k++) await d.type('');
+    await d.type(''); // no finding in words
+    expect(d.lastFrame()).toContain('Does this find the fault?');
+    await d.type(''); // not yet
+    expect(d.screen().replace(/\s+/g, ' ')).toMatch(/After "Measure armature voltage and current under load" \(abnormal\):/);
+    d.unmount();
+  });
+});
