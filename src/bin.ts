@@ -5,7 +5,8 @@
  * the CommonJS bundle is missing, everything runs from the ES modules.
  */
 import { fileURLToPath } from 'node:url';
-import { opensDialogue } from './shell/cli-options.js';
+import { readCommandLine } from './shell/cli-options.js';
+import { helpFor } from './shell/help.js';
 import { runBundle } from './launch/compiled-bundle.js';
 import { withoutFetch } from './launch/without-fetch.js';
 import type { Install, runCli as RunCli } from './main.js';
@@ -19,15 +20,22 @@ const install: Install = {
   loadScreens: () => withoutFetch(() => import('./ui/run-dialogue.js')),
 };
 const argv = process.argv.slice(2);
+const line = readCommandLine(argv);
+
+declare const DCTRIAGE_VERSION: string;
 
 // Both builds run the same shell (main.tsx); opensDialogue only picks the faster one for the
 // arguments, so if it and main's own reading ever disagreed, the result would be the same.
 async function pickRunCli(): Promise<typeof RunCli> {
-  if (!opensDialogue(argv)) {
+  const opensDialogue = line.kind === 'run' && (line.command === '' || line.command === 'resume');
+  if (!opensDialogue) {
     const core = runBundle(here('./core.cjs'), here('./core.cjs.cache'));
     if (core && typeof core.exports.runCli === 'function') return core.exports.runCli as typeof RunCli;
   }
   return (await import('./main.js')).runCli;
 }
 
-await (await pickRunCli())(argv, install);
+// Help and the version are answered here, without loading the tool.
+if (line.kind === 'help') process.stdout.write(helpFor(line.commands) + '\n');
+else if (line.kind === 'version') process.stdout.write((typeof DCTRIAGE_VERSION === 'string' ? DCTRIAGE_VERSION : 'dev') + '\n');
+else await (await pickRunCli())(argv, install);

@@ -24,6 +24,16 @@ export interface ReportInput {
   timeZone?: string;
   /** Where an SVG of the characteristic sits beside the report, when there is one. */
   chartFile?: string;
+  /** Which tool and which rules made the diagnosis. */
+  producedBy?: ProducedBy;
+}
+
+export interface ProducedBy {
+  version: string;
+  /** "built-in rules", or the rule folder as given. */
+  rules: string;
+  /** The rule folder's commit, where it is a git repository. */
+  revision?: string;
 }
 
 const UNIT: Record<string, string> = { degC: '°C', ohm: 'Ω', Mohm: 'MΩ', '1': '', 'N m': 'N·m' };

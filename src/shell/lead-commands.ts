@@ -6,7 +6,7 @@ import { mkdirSync, readdirSync, unlinkSync } from 'node:fs';
 import { basename, isAbsolute, join, relative } from 'node:path';
 import { caseSchema, type CaseFile } from '../knowledge/case-schema.js';
 import { stableJson } from '../knowledge/canonical.js';
-import { loadCase, loadCaseFile } from '../knowledge/load-case.js';
+import { caseFromJson, loadCase, loadCaseFile } from '../knowledge/load-case.js';
 import { crossCheck, loadRuleBase, type RuleBase } from '../knowledge/load-rules.js';
 import { readValidated } from '../knowledge/read-json.js';
 import { formatIssues, type Issue } from '../knowledge/result.js';
@@ -17,7 +17,9 @@ import { draftFromCase, withDraft, type DraftFile } from '../engine/draft-rule.j
 import { fileCase } from './file-case.js';
 import { diagnose } from '../engine/diagnose.js';
 import { buildEngine } from '../engine/run-rules.js';
-import { jobReport } from '../report/job-report.js';
+import { jobReport, type ProducedBy } from '../report/job-report.js';
+import { clockTime } from '../report/clock-time.js';
+import { JSON_FORMATS } from './json-formats.js';
 import { replaceFile, writeNewFile } from './safe-write.js';
 
 export interface Outcome {
@@ -26,7 +28,8 @@ export interface Outcome {
   err?: string;
 }
 
-const bad = (issues: Issue[]): Outcome => ({ code: 2, err: formatIssues(issues) });
+/** Issues as the shell prints them: one line each, starting with the program's name. */
+const bad = (issues: Issue[]): Outcome => ({ code: 2, err: formatIssues(issues).split('\n').map((l) => `dctriage: ${l}`).join('\n') });
 /** A path as the lead would type it: relative when it is under the working folder. */
 const shown = (file: string) => {
   const r = relative(process.cwd(), file);
@@ -38,8 +41,9 @@ export function caseFiles(dir: string): string[] {
   return readdirSync(dir).filter((f) => f.endsWith('.json')).sort().map((f) => join(dir, f));
 }
 
-export function addCase(file: string, casesDir: string, base: RuleBase, today: string): Outcome {
-  const c = loadCaseFile(file, new Set(base.causes.map((x) => x.id)));
+/** `file` names where the job's JSON came from (a file, or standard input). */
+export function addCase(file: string, json: unknown, casesDir: string, base: RuleBase, today: string): Outcome {
+  const c = caseFromJson(file, json, new Set(base.causes.map((x) => x.id)));
   if (!c.ok) return bad(c.issues);
   const filed = fileCase(c.value.raw, c.value.job, casesDir, today);
   if (!filed.ok) return bad(filed.issues);
@@ -48,12 +52,12 @@ export function addCase(file: string, casesDir: string, base: RuleBase, today: s
 }
 
 /** A lead's review of a saved job: its report on stdout, and with `closeBy` the job marked closed. */
-export async function reviewJob(file: string, base: RuleBase, closeBy: string | undefined, now: string, timeZone?: string): Promise<Outcome> {
+export async function reviewJob(file: string, base: RuleBase, closeBy: string | undefined, now: string, timeZone?: string, producedBy?: ProducedBy): Promise<Outcome> {
   const c = loadCaseFile(file, new Set(base.causes.map((x) => x.id)));
   if (!c.ok) return bad(c.issues);
   const { job: parsed, raw } = c.value;
   const d = await diagnose(parsed, base, buildEngine(base));
-  const text = jobReport({ job: parsed, raw, diagnosis: d, safety: base.safety, generatedAt: now, ...(timeZone ? { timeZone } : {}) });
+  const text = jobReport({ job: parsed, raw, diagnosis: d, safety: base.safety, generatedAt: now, ...(timeZone ? { timeZone } : {}), ...(producedBy ? { producedBy } : {}) });
   if (closeBy === undefined) return { code: 0, out: text };
   if (closeBy.trim() === '') return bad([{ code: 'invalid', file, path: 'job.closedBy', message: 'name who closes the job: --close NAME' }]);
   try {
@@ -61,7 +65,7 @@ export async function reviewJob(file: string, base: RuleBase, closeBy: string | 
   } catch (e) {
     return bad([{ code: 'unreadable', file, path: '', message: `could not mark the job closed: ${(e as Error).message}` }]);
   }
-  return { code: 0, out: `${text}\nClosed by ${closeBy} at ${now}; written to ${file}.` };
+  return { code: 0, out: `${text}\nClosed by ${closeBy} at ${clockTime(now, timeZone)}; written to ${file}.` };
 }
 
 export interface RankChange {
@@ -115,7 +119,7 @@ export async function draftRule(caseFile: string, rulesDir: string, casesDir: st
   if (!after.ok) return bad(after.issues);
   const changes = rankChanges(before.value, after.value);
   const dropped = changes.filter((c) => c.droppedOut);
-  if (asJson) return { code: 0, out: json({ file: written, draft: draft.file, conditions: draft.conditions, rankChanges: changes, flagged: dropped.map((c) => c.id) }) };
+  if (asJson) return { code: 0, out: json({ format: JSON_FORMATS.ruleDraft, file: written, draft: draft.file, conditions: draft.conditions, rankChanges: changes, flagged: dropped.map((c) => c.id) }) };
   const moved = changes.filter((c) => c.before !== c.after);
   const lines = [
     `Wrote ${shown(written)}: rule "${draft.name}" for ${draft.cause}, ${draft.conditions} condition${draft.conditions === 1 ? '' : 's'}, weight ${draft.file.rules[0]!.kind === 'evidence' ? draft.file.rules[0]!.weight : ''}.`,
@@ -132,7 +136,8 @@ export interface RuleCheckReport {
   cases?: CaseCheckReport;
 }
 
-export async function checkRules(rulesDir: string, casesDir: string, asJson: boolean): Promise<Outcome> {
+/** `shownPath` turns a file into what output shows (never the install's absolute path). */
+export async function checkRules(rulesDir: string, casesDir: string, asJson: boolean, shownPath: (file: string) => string = (f) => f): Promise<Outcome> {
   const loaded = loadRuleBase(rulesDir);
   let report: RuleCheckReport;
   if (!loaded.ok) {
@@ -147,8 +152,9 @@ export async function checkRules(rulesDir: string, casesDir: string, asJson: boo
     }
     report = { clean: findings.length === 0, findings, cases: cases.value };
   }
+  report = { ...report, findings: report.findings.map((f) => ({ ...f, file: shownPath(f.file) })), ...(report.cases ? { cases: { ...report.cases, cases: report.cases.cases.map((c) => ({ ...c, file: shownPath(c.file) })) } } : {}) };
   const err = report.findings.map((f) => `${f.file}: ${f.about ? `${f.about}: ` : ''}${f.message}`).join('\n');
-  const text = asJson ? json(report) : report.clean ? 'Rule folder clean: every check passed and every recorded case ranks in its top 3.' : '';
+  const text = asJson ? json({ format: JSON_FORMATS.ruleCheck, ...report }) : report.clean ? 'Rule folder clean: every check passed and every recorded case ranks in its top 3.' : '';
   return { code: report.clean ? 0 : 1, ...(text ? { out: text } : {}), ...(err ? { err } : {}) };
 }
 
