@@ -3,7 +3,7 @@
  * coded issues; only this file prints or exits.
  */
 import { spawnSync } from 'node:child_process';
-import { readdirSync } from 'node:fs';
+import { existsSync, readdirSync } from 'node:fs';
 import { dirname, isAbsolute, join, relative, resolve } from 'node:path';
 import { computeExpectations } from './model/expected.js';
 import { caseFromJson, modelInput } from './knowledge/load-case.js';
@@ -353,7 +353,15 @@ async function dialogue(
   const { runDialogue } = await install.loadScreens();
   const ended = await runDialogue({ notice: safety.value.notice, color, prepare });
   if (ended.message) process.stderr.write(ended.message + '\n');
+  if (ended.code !== 0 && ended.code !== 2) process.stderr.write(resumeHint(sessionFile, opts.session !== undefined) + '\n');
   return ended.code;
+}
+
+/** Said when the dialogue is interrupted: where the session is, and the command that picks it up. */
+function resumeHint(sessionFile: string, named: boolean): string {
+  if (!existsSync(sessionFile)) return 'dctriage: stopped before any answer; nothing to resume.';
+  const resume = named ? `dctriage resume --session ${JSON.stringify(sessionFile)}` : 'dctriage resume';
+  return `dctriage: stopped. The session is kept in ${sessionFile}; to carry on where you were, run: ${resume}`;
 }
 
 /** Writes the job beside the fitter as a dc-case/1 file that never replaces another. */
