@@ -17,7 +17,7 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
           .join('\n'),
     );
   }
-  if (opts.readings !== false) parts.push('Readings against a healthy machine:\n' + formatExpectation(d.expectation, opts.width));
+  if (opts.readings !== false) parts.push('Readings against a healthy machine:\n' + formatExpectation(d.expectation, opts.width, { computed: false }));
   if (opts.chart) parts.push(opts.chart);
   if (d.checks.length) {
     const title = new Map(d.causes.map((c) => [c.id, c.title]));

@@ -21,6 +21,8 @@ export async function writeReport(path: string | undefined, input: Omit<ReportIn
   const chartFile = svg ? `${basename(target).replace(/\.[^.]+$/, '')}.svg` : undefined;
   const markdown = jobReport({ ...input, ...(chartFile ? { chartFile } : {}) });
   if (chartFile && svg && !html) replaceFile(join(dirname(target), chartFile), svg);
-  replaceFile(target, html ? await htmlReport(markdown, `Job report ${input.job.job?.asset ?? ''}`.trim(), svg) : markdown);
+  const job = input.job.job;
+  const header = [job?.workOrder, job?.asset].filter(Boolean).join(' · ') || 'DC machine job';
+  replaceFile(target, html ? await htmlReport(markdown, `Job report ${job?.asset ?? ''}`.trim(), svg, header) : markdown);
   return target;
 }
