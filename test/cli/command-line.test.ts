@@ -1,10 +1,11 @@
 /** The command line as people use it: per-command options, help, version, standard input and output. */
-import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { CLI, ROOT, installCopy, runCli } from '../support/cli.js';
+import { copyOfRules } from '../support/rules.js';
 
 const demo = 'cases/2026-10-14-press-feed-field-weak.json';
 const demoText = () => readFileSync(join(ROOT, demo), 'utf8');
@@ -171,5 +172,23 @@ describe('dates', () => {
     const [name] = readdirSync(cases);
     // The id keeps the letters of the asset's name.
     expect([`${local}-forderband-3.json`]).toContain(name);
+  });
+});
+
+describe('the report says what produced it', () => {
+  it('names the version and the built-in rules, or a rule folder with its git revision', async () => {
+    const { default: pkg } = await import('../../package.json', { with: { type: 'json' } });
+    expect(runCli(['diagnose', demo, '--report', '-']).stdout).toContain(`Diagnosis by dctriage ${pkg.version} with its built-in rules.`);
+    const rules = copyOfRules();
+    const git = (...args: string[]) => spawnSync('git', ['-C', rules, ...args], { encoding: 'utf8', env: { ...process.env, GIT_AUTHOR_NAME: 't', GIT_AUTHOR_EMAIL: 't@example.invalid', GIT_COMMITTER_NAME: 't', GIT_COMMITTER_EMAIL: 't@example.invalid' } });
+    git('init', '-q');
+    git('add', '.');
+    git('commit', '-qm', 'rules');
+    const rev = git('log', '-1', '--format=%h %cs').stdout.trim();
+    expect(rev).toMatch(/^[0-9a-f]{7,} \d{4}-\d{2}-\d{2}$/);
+    expect(runCli(['diagnose', demo, '--rules', rules, '--report', '-']).stdout).toContain(`(revision ${rev}).`);
+    mkdirSync(join(rules, 'drafts'));
+    writeFileSync(join(rules, 'drafts', 'later.json'), '{}');
+    expect(runCli(['diagnose', demo, '--rules', rules, '--report', '-']).stdout).toContain(`(revision ${rev}, with uncommitted changes).`);
   });
 });
