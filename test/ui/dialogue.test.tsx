@@ -179,3 +179,18 @@ describe('the dialogue', () => {
     again.unmount();
   });
 });
+
+describe('done before anything is known', () => {
+  it.each([
+    ['as the very first input', [] as string[]],
+    ['after the first answer', ['', 'running']],
+  ])('answers at once %s: nothing to go on yet, and the question stays', async (_when, before) => {
+    const d = renderDialogue();
+    for (const line of before) await d.type(line);
+    await d.type('done');
+    expect(d.lastFrame()).not.toContain('Working out the result');
+    expect(d.screen()).toContain('Nothing to go on yet');
+    expect(d.lastFrame()).toMatch(/^\? /m);
+    d.unmount();
+  });
+});
