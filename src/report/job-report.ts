@@ -7,6 +7,7 @@ import type { Safety } from '../knowledge/rulebase-schema.js';
 import type { Diagnosis } from '../engine/diagnose.js';
 import { CONNECTION_TRAITS } from '../model/machine.js';
 import { readingRows, rowLabel } from './reading-rows.js';
+import { evidenceLines } from './evidence-lines.js';
 import { DIMENSIONS } from '../units/quantity.js';
 import { READING_FIELDS, type ReadingName } from '../knowledge/case-schema.js';
 import { OBSERVATIONS, SYMPTOMS, type ObservationName } from '../knowledge/vocabulary.js';
@@ -129,7 +130,7 @@ export function jobReport(r: ReportInput): string {
   if (!d.causes.length) lines.push('No cause stood out from what was known.');
   d.causes.slice(0, 6).forEach((c, k) => {
     lines.push(`${k + 1}. **${c.title}** (score ${c.score.toFixed(2)})`);
-    for (const e of new Set(c.evidence.map((x) => `${x.weight > 0 ? 'for' : 'against'}: ${x.says}`))) lines.push(`   - ${e}`);
+    for (const e of evidenceLines(c.evidence)) lines.push(`   - ${e.supports ? 'for' : 'against'}: ${e.says}`);
   });
   lines.push('');
 

@@ -1,6 +1,7 @@
 /** The diagnose command's readable output: warnings first, then causes, readings, checks. */
 import type { Diagnosis } from '../engine/diagnose.js';
 import { formatExpectation } from './format-expect.js';
+import { evidenceLines } from '../report/evidence-lines.js';
 
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'LIVE TEST (qualified person)', isolated: 'isolated' } as const;
 
@@ -13,7 +14,7 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
       'Likely causes:\n' +
         d.causes
           .slice(0, 6)
-          .map((c, k) => `${k + 1}. ${c.title} (${c.id}) — score ${c.score.toFixed(2)}\n${distinct(c.evidence.map((e) => `     ${e.weight > 0 ? '+' : '−'} ${e.says}`)).join('\n')}`)
+          .map((c, k) => `${k + 1}. ${c.title} (${c.id}) — score ${c.score.toFixed(2)}\n${evidenceLines(c.evidence).map((e) => `     ${e.supports ? '+' : '−'} ${e.says}`).join('\n')}`)
           .join('\n'),
     );
   }
@@ -33,9 +34,4 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
     parts.push('Checks, in order:\n' + lines.join('\n'));
   }
   return parts.join('\n\n');
-}
-
-/** Two rules can see the same thing: say it once. */
-function distinct(lines: string[]): string[] {
-  return [...new Set(lines)];
 }

@@ -194,3 +194,16 @@ describe('done before anything is known', () => {
     d.unmount();
   });
 });
+
+describe('why', () => {
+  it('says in plain words how well the question tells the causes apart, without bits', async () => {
+    const d = renderDialogue();
+    await openJob(d);
+    await d.type('why');
+    const screen = d.screen();
+    expect(screen).toMatch(/Asked because the answer tells (the leading causes well apart|some of the leading causes apart|the leading causes apart only a little):/);
+    expect(screen).not.toMatch(/\bbits?\b/);
+    expect(screen).not.toMatch(/\(\d+ %\)/);
+    d.unmount();
+  });
+});
