@@ -36,6 +36,6 @@ async function pickRunCli(): Promise<typeof RunCli> {
 }
 
 // Help and the version are answered here, without loading the tool.
-if (line.kind === 'help') process.stdout.write(helpFor(line.commands) + '\n');
+if (line.kind === 'help') process.stdout.write(helpFor(line.commands, process.stdout.columns || Number(process.env.COLUMNS) || 80) + '\n');
 else if (line.kind === 'version') process.stdout.write((typeof DCTRIAGE_VERSION === 'string' ? DCTRIAGE_VERSION : 'dev') + '\n');
 else await (await pickRunCli())(argv, install);

@@ -36,6 +36,7 @@ import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } f
 import { readCommandLine } from './shell/cli-options.js';
 import { JSON_FORMATS } from './shell/json-formats.js';
 import { wantsColor } from './shell/color.js';
+import { wrapText } from './shell/wrap.js';
 import { localDate } from './report/clock-time.js';
 import { jobReport, type ProducedBy } from './report/job-report.js';
 import type { Prepared } from './ui/run-dialogue.js';
@@ -100,10 +101,13 @@ function out(text: string): void {
   process.stdout.write(text.endsWith('\n') ? text : text + '\n');
 }
 
+/** Text for people: long lines wrapped to the terminal with a hanging indent. */
+const outText = (text: string) => out(wrapText(text, terminalWidth()));
+
 async function main(argv: string[]): Promise<number> {
   const line = readCommandLine(argv);
   if (line.kind === 'usage-error') throw new UsageError(line.message, line.command);
-  if (line.kind === 'help') return out(helpFor(line.commands)), 0;
+  if (line.kind === 'help') return out(helpFor(line.commands, terminalWidth())), 0;
   if (line.kind === 'version') return out(programVersion()), 0;
   const { command, args, opts } = line;
   switch (command) {
@@ -115,7 +119,7 @@ async function main(argv: string[]): Promise<number> {
       if (opts.json) out(JSON.stringify({ format: JSON_FORMATS.expectation, quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2));
       else {
         const chart = opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor());
-        out(formatExpectation(e, terminalWidth()) + (chart ? `\n\n${chart}` : ''));
+        outText(formatExpectation(e, terminalWidth()) + (chart ? `\n\n${chart}` : ''));
       }
       return 0;
     }
@@ -140,8 +144,8 @@ async function main(argv: string[]): Promise<number> {
           quantities: d.expectation.quantities,
         }, null, 2));
       } else {
-        if (replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
-        out(formatDiagnosis(d, { width: terminalWidth(), chart: opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor()) }));
+        if (replay) outText(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
+        outText(formatDiagnosis(d, { width: terminalWidth(), chart: opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor()) }));
       }
       if (opts.report !== undefined) {
         try {
@@ -169,10 +173,10 @@ async function main(argv: string[]): Promise<number> {
     case 'rules adopt': {
       const k = knowledge(opts, command === 'rules check');
       if (!k.ok) return fail(k.issues);
-      if (command === 'rules check') return print(await checkRules(k.value.rules, k.value.cases, !!opts.json, shownPath));
+      if (command === 'rules check') return print(await checkRules(k.value.rules, k.value.cases, !!opts.json, shownPath), !opts.json);
       const base = loadRules(k.value.rules);
       if (!base.ok) return fail(base.issues);
-      if (command === 'rules draft') return print(await draftRule(opts['from-case']!, k.value.rules, k.value.cases, base.value, !!opts.json));
+      if (command === 'rules draft') return print(await draftRule(opts['from-case']!, k.value.rules, k.value.cases, base.value, !!opts.json), !opts.json);
       return print(await adoptDraft(args[0]!, k.value.rules, k.value.cases, base.value, !!opts.force));
     }
     case 'review': {
@@ -180,7 +184,7 @@ async function main(argv: string[]): Promise<number> {
       if (!k.ok) return fail(k.issues);
       const base = loadRules(k.value.rules);
       if (!base.ok) return fail(base.issues);
-      return print(await reviewJob(args[0]!, base.value, opts.close, new Date().toISOString(), localTimeZone(), producedBy(k.value.rules)));
+      return print(await reviewJob(args[0]!, base.value, opts.close, new Date().toISOString(), localTimeZone(), producedBy(k.value.rules)), false);
     }
     case '':
     case 'resume':
@@ -215,7 +219,7 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
   const report = await checkCases(files, base.value, runner);
   if (!report.ok) return fail(report.issues);
   const shown = { ...report.value, cases: report.value.cases.map((c) => ({ ...c, file: shownPath(c.file) })) };
-  out(opts.json ? JSON.stringify({ format: JSON_FORMATS.caseCheck, ...shown }, null, 2) : formatCaseCheck(shown));
+  out(opts.json ? JSON.stringify({ format: JSON_FORMATS.caseCheck, ...shown }, null, 2) : wrapText(formatCaseCheck(shown, terminalWidth()), terminalWidth()));
   return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
 }
 
@@ -285,8 +289,9 @@ function knowledge(opts: { rules?: string | undefined; cases?: string | undefine
   return resolveKnowledge(opts, process.env, process.cwd(), reading ? { rules: install.rules, cases: install.cases } : undefined);
 }
 
-function print(o: Outcome): number {
-  if (o.out) out(o.out);
+/** A lead command's outcome; `asText` wraps its output to the terminal (a report stays as written). */
+function print(o: Outcome, asText = true): number {
+  if (o.out) (asText ? outText : out)(o.out);
   if (o.err) process.stderr.write(o.err.endsWith('\n') ? o.err : o.err + '\n');
   return o.code;
 }
@@ -379,7 +384,8 @@ function saveJob(draft: unknown): string {
 const today = () => localDate();
 /** This machine's time zone (TZ, else the system's), for the times in a report. */
 const localTimeZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone;
-const terminalWidth = () => process.stdout.columns ?? 80;
+/** The terminal's width; COLUMNS when the output is not a terminal (piped, or in a test). */
+const terminalWidth = () => process.stdout.columns || Number(process.env.COLUMNS) || 80;
 /** Colour as Node's hasColors() decides (NO_COLOR, FORCE_COLOR, TERM=dumb); the chart itself is drawn either way. */
 const useColor = () => wantsColor(process.stdout);
 

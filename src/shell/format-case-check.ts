@@ -1,12 +1,25 @@
-/** The cases check report for a workshop lead. */
+/** The cases check report for a workshop lead, laid out to fit the terminal. */
 import type { CaseCheckReport } from '../engine/check-cases.js';
 import { renderTable } from './table.js';
 
-export function formatCaseCheck(r: CaseCheckReport): string {
+const shorten = (s: string, n: number) => (s.length > n ? `${s.slice(0, n - 1)}…` : s);
+
+/** `skipped` lists files not run and why; see checkCases. */
+export function formatCaseCheck(r: CaseCheckReport, width = 100): string {
   const pct = (n: number) => (r.total ? `${Math.round((n / r.total) * 100)} %` : '–');
-  const rows = r.cases.map((c) => [c.rank === 0 ? 'absent' : String(c.rank), c.rank >= 1 && c.rank <= 3 ? '' : 'OUT', c.id, c.expected, c.ranked.slice(0, 3).join(', ')]);
+  // rank, flag and the gaps take 17 columns; the rest is shared by the case, its cause and the leader.
+  const room = Math.max(30, width - 17);
+  const [caseWidth, causeWidth] = [Math.floor(room * 0.4), Math.max(15, Math.floor(room * 0.3))];
+  const leaderWidth = room - caseWidth - causeWidth;
+  const rows = r.cases.map((c) => [
+    c.rank === 0 ? 'absent' : String(c.rank),
+    c.rank >= 1 && c.rank <= 3 ? '' : 'OUT',
+    shorten(c.id, caseWidth),
+    shorten(c.expected, causeWidth),
+    c.rank === 1 ? '' : shorten(c.ranked[0] ?? '', leaderWidth),
+  ]);
   return [
-    renderTable(['rank', '', 'case', 'confirmed cause', 'ranked first'], rows, new Set([0])),
+    renderTable(['rank', '', 'case', 'confirmed cause', 'led by'], rows, new Set([0])),
     '',
     `${r.total} cases: ${r.top1} ranked first (${pct(r.top1)}), ${r.top3} in the top 3 (${pct(r.top3)}).`,
   ].join('\n');

@@ -16,7 +16,7 @@ export function formatExpectation(e: Expectation, width = 100, opts: { computed?
   const withUnit = (x: number, q: Quantity) => `${num(x)} ${unitOf(q.unit)}`.trim();
   const rows = readingRows(e);
   // The label column gets what the numbers leave of the width.
-  const labelWidth = Math.max(16, Math.min(34, width - 36));
+  const labelWidth = Math.max(14, Math.min(34, width - 32));
   const parts: string[] = [];
   if (rows.length) {
     parts.push(

@@ -1,5 +1,6 @@
 /** Usage text and the safety notice: the whole tool's (--help), and each command's (help CMD, CMD --help). */
 import { COMMANDS, OPTION_HELP, type CommandSpec } from './cli-options.js';
+import { wrapText } from './wrap.js';
 
 export const SAFETY_NOTICE = `Safety: dctriage advises; it does not make equipment safe. Before touching conductors,
 isolate, lock off and prove dead (test the tester before and after). Live tests are for
@@ -17,36 +18,47 @@ const FILE_NOTE = 'FILE is a dc-case/1 JSON file (schema: schemas/dc-case-1.sche
 const KNOWLEDGE_NOTE = `Without --rules/--cases, writing commands use DCTRIAGE_KNOWLEDGE, the "knowledge"
 folder of ~/.config/dctriage/settings.json, or rules/ and cases/ of a checkout.`;
 
-function columns(rows: [string, string][]): string {
+/** A note reflowed to the width. */
+const paragraph = (text: string, width: number) => wrapText(text.replace(/\n/g, ' '), width);
+
+/** Two columns; a description too long for the width continues under itself. */
+function columns(rows: [string, string][], width: number): string {
   const w = Math.max(...rows.map(([a]) => a.length));
-  return rows.map(([a, b]) => `  ${a.padEnd(w)}  ${b}`).join('\n');
+  const room = width - w - 4;
+  // Too narrow for two columns: each description goes under its name.
+  if (room < 30) return rows.flatMap(([a, b]) => [`  ${a}`, ...(b ? [wrapText(`      ${b}`, width)] : [])]).join('\n');
+  const lines = (text: string) => wrapText(text, room).split('\n');
+  return rows
+    .flatMap(([a, b]) => lines(b).map((part, k) => `  ${(k === 0 ? a : '').padEnd(w)}  ${part}`.trimEnd()))
+    .join('\n');
 }
 
-export const USAGE = `dctriage - find faults on DC machines, fast and safely
+/** The whole tool's usage, laid out for `width` columns. */
+export const usage = (width = 80) => `${paragraph('dctriage - find faults on DC machines, fast and safely', width)}
 
 Usage:
-${columns([...COMMANDS.filter((c) => c.name !== 'help').map((c): [string, string] => [synopsis(c), c.says]), ['dctriage help COMMAND', "a command's usage and options (or COMMAND --help)"], ['dctriage --help | --version', '']])}
+${columns([...COMMANDS.filter((c) => c.name !== 'help').map((c): [string, string] => [synopsis(c), c.says]), ['dctriage help COMMAND', "a command's usage and options (or COMMAND --help)"], ['dctriage --help | --version', '']], width)}
 
-Options (each command takes only its own; see dctriage help COMMAND):
-${columns(Object.entries(OPTION_HELP).map(([name, o]): [string, string] => [`--${name}${o.value ? ` ${o.value}` : ''}`, o.says]))}
+${wrapText('Options (each command takes only its own; see dctriage help COMMAND):', width)}
+${columns(Object.entries(OPTION_HELP).map(([name, o]): [string, string] => [`--${name}${o.value ? ` ${o.value}` : ''}`, o.says]), width)}
   -h, --help      this help
   -v, --version   the version
 
-${KNOWLEDGE_NOTE}
+${paragraph(KNOWLEDGE_NOTE, width)}
 
-${FILE_NOTE}
-${EXIT_CODES}
+${paragraph(FILE_NOTE, width)}
+${paragraph(EXIT_CODES, width)}
 
-${SAFETY_NOTICE}`;
+${paragraph(SAFETY_NOTICE, width)}`;
 
 /** One command's usage and options. */
-export function commandHelp(c: CommandSpec): string {
-  const options = columns([...c.options.map((name): [string, string] => [`--${name}${OPTION_HELP[name].value ? ` ${OPTION_HELP[name].value}` : ''}`, OPTION_HELP[name].says]), ['-h, --help', 'this help']]);
+export function commandHelp(c: CommandSpec, width = 80): string {
+  const options = columns([...c.options.map((name): [string, string] => [`--${name}${OPTION_HELP[name].value ? ` ${OPTION_HELP[name].value}` : ''}`, OPTION_HELP[name].says]), ['-h, --help', 'this help']], width);
   const notes = [c.args === 'FILE' ? FILE_NOTE : '', c.options.includes('cases') ? KNOWLEDGE_NOTE : ''].filter(Boolean);
-  return [`Usage: ${synopsis(c)}${c.options.length ? ' [options]' : ''}`, '', c.says.charAt(0).toUpperCase() + c.says.slice(1) + '.', '', 'Options:', options, ...(notes.length ? ['', ...notes] : [])].join('\n');
+  return [paragraph(`Usage: ${synopsis(c)}${c.options.length ? ' [options]' : ''}`, width), '', paragraph(c.says.charAt(0).toUpperCase() + c.says.slice(1) + '.', width), '', 'Options:', options, ...(notes.length ? ['', ...notes.map((n) => paragraph(n, width))] : [])].join('\n');
 }
 
 /** The help for these commands: the whole usage when all are asked for. */
-export function helpFor(commands: readonly CommandSpec[]): string {
-  return commands.length === COMMANDS.length ? USAGE : commands.map(commandHelp).join('\n\n');
+export function helpFor(commands: readonly CommandSpec[], width = 80): string {
+  return commands.length === COMMANDS.length ? usage(width) : commands.map((c) => commandHelp(c, width)).join('\n\n');
 }

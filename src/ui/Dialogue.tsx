@@ -15,6 +15,7 @@ import type { CaseFile } from '../knowledge/case-schema.js';
 import type { Answer } from '../dialogue/job.js';
 import type { Diagnosis } from '../engine/diagnose.js';
 import { formatDiagnosis } from '../shell/format-diagnosis.js';
+import { wrapText } from '../shell/wrap.js';
 import { whyAsked } from '../dialogue/why.js';
 import { useLineInput } from './use-line-input.js';
 
@@ -111,7 +112,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
 
   return (
     <Box flexDirection="column">
-      <Static items={transcript}>{(l) => <Text key={l.key} {...tone(l.tone)}>{l.text}</Text>}</Static>
+      <Static items={transcript}>{(l) => <Text key={l.key} {...tone(l.tone)}>{wrapText(l.text, width)}</Text>}</Static>
       {state.phase === 'notice' && <Text>Press Enter to begin.</Text>}
       {state.phase === 'asking' && diagnosis && diagnosis.warnings.length > 0 && (
         <Box flexDirection="column">{diagnosis.warnings.map((w) => <Text key={w.id} {...(color ? { color: 'red' } : {})}>!! {w.says}</Text>)}</Box>

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { COMMANDS, readCommandLine } from '../../src/shell/cli-options.js';
-import { commandHelp, USAGE } from '../../src/shell/help.js';
+import { commandHelp, usage } from '../../src/shell/help.js';
+
+const USAGE = usage(100);
 
 describe('readCommandLine', () => {
   it('reads a command with its file and options', () => {

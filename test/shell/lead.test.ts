@@ -30,7 +30,7 @@ describe('dctriage cases add', () => {
     runCli(['cases', 'add', demo, '--cases', dir, '--rules', rules]);
     const r = runCli(['cases', 'add', demo, '--cases', dir, '--rules', rules]);
     expect(r.code).toBe(0);
-    expect(r.stdout).toContain('filed as "press-feed-field-weak-2"');
+    expect(r.stdout.replace(/\s+/g, ' ')).toContain('filed as "press-feed-field-weak-2"');
     expect(jsonFiles(dir)).toEqual(['2026-10-14-press-feed-field-weak-2.json', '2026-10-14-press-feed-field-weak.json']);
     expect(JSON.parse(readFileSync(join(dir, '2026-10-14-press-feed-field-weak-2.json'), 'utf8')).id).toBe('press-feed-field-weak-2');
   });

@@ -207,3 +207,22 @@ describe('why', () => {
     d.unmount();
   });
 });
+
+describe('the result on screen', () => {
+  it('wraps long lines at the width with a hanging indent, shows each reading once and no unmeasured rows', async () => {
+    const d = renderDialogue();
+    await openJob(d);
+    for (const a of ['done']) await d.type(a);
+    const screen = d.screen();
+    expect(screen).toContain('Likely causes:');
+    // ink-testing-library draws 100 columns.
+    for (const line of screen.split('\n')) expect([...line].length, line).toBeLessThanOrEqual(100);
+    const lines = screen.split('\n');
+    const continued = lines.findIndex((l, k) => /^ {2}- /.test(l) && /^ {4}\S/.test(lines[k + 1] ?? ''));
+    expect(continued, 'a list item continued under its text').toBeGreaterThanOrEqual(0);
+    const table = screen.slice(screen.lastIndexOf('Readings against a healthy machine:'));
+    expect(table).not.toContain('machine constant');
+    expect(table).not.toContain('rated back-EMF');
+    d.unmount();
+  });
+});
