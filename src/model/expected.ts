@@ -146,9 +146,9 @@ export function computeExpectations({ machine, readings = {} }: ModelInput): Exp
   } else if (np.armatureVoltage !== undefined && np.power !== undefined && inputCurrent !== undefined && ratedIa !== undefined && ratedIa > 0) {
     const losses = np.armatureVoltage * inputCurrent - np.power;
     const efficiency = np.power / (np.armatureVoltage * inputCurrent);
-    // A motor converts 50–97 % of its input; outside that the plate reading is wrong (often kW typed as W).
+    // A motor converts 50–97 % of its input; outside that a plate value was misread or mistyped.
     if (efficiency < 0.5 || efficiency > 0.97) {
-      out.findings.push({ code: 'nameplate-power-implausible', says: `nameplate output ${fmt(np.power, 'W')} is ${Math.round(efficiency * 100)} % of the ${fmt(np.armatureVoltage * inputCurrent, 'W')} input that voltage and current mean: check the plate (kW typed as W?)` });
+      out.findings.push({ code: 'nameplate-power-implausible', says: `nameplate output ${fmt(np.power, 'W')} is ${Math.round(efficiency * 100)} % of the ${fmt(np.armatureVoltage * inputCurrent, 'W')} input that voltage and current mean: ${nameplateHint(efficiency)}` });
     } else if (losses > 0) {
       circuitR = (0.5 * losses) / (ratedIa * ratedIa);
       circuitEstimated = true;
@@ -432,4 +432,18 @@ function solveSeriesShare(curve: MachineData['magnetization'], sense: 1 | -1 | 0
     else lo = mid;
   }
   return (lo + hi) / 2;
+}
+
+/**
+ * What to look at on a plate whose output and input disagree. An output a thousandth of a
+ * plausible one is a power in kW typed as W; an output above the input is not: there a power
+ * in hp taken as kW, a decimal slip, or a current or voltage from another line of the plate
+ * (the field's, or another rating's) is more likely.
+ */
+export function nameplateHint(efficiency: number): string {
+  const asKilowatts = efficiency * 1000;
+  if (asKilowatts >= 0.5 && asKilowatts <= 0.97) return 'check the plate (the power looks like kW typed as W)';
+  if (efficiency > 1) return 'the output cannot exceed the input: check the power (hp written as kW, or a decimal slip) and that the voltage and current are the armature\'s rated ones';
+  if (efficiency > 0.97) return 'no motor is that efficient: check the power, and that the voltage and current are the armature\'s rated ones';
+  return 'check the power, the voltage and the current against the plate';
 }
