@@ -15,6 +15,7 @@ import { checkCases, type CaseCheckReport } from '../engine/check-cases.js';
 import { reviewRuleBase, type RuleFinding } from '../engine/check-rules.js';
 import { draftFromCase, withDraft, type DraftFile } from '../engine/draft-rule.js';
 import { fileCase } from './file-case.js';
+import { placeholderTexts } from '../engine/draft-placeholders.js';
 import { diagnose } from '../engine/diagnose.js';
 import { buildEngine } from '../engine/run-rules.js';
 import { jobReport, type ProducedBy } from '../report/job-report.js';
@@ -162,6 +163,13 @@ export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: 
   const d = readValidated(draftPath, draftFile);
   if (!d.ok) return bad(d.issues);
   const draft: DraftFile = d.value;
+  const unwritten = placeholderTexts(draft.causes ?? [], draft.checks ?? []);
+  if (unwritten.length) {
+    return {
+      code: 1,
+      err: [`Not adopted: ${draftPath} still has the draft's placeholder text, which would reach fitters:`, ...unwritten.map((p) => `  ${p.path} (${p.about}): ${JSON.stringify(p.text)}`), 'Write the real words in the draft, then adopt it.'].join('\n'),
+    };
+  }
   const target = join(rulesDir, basename(draftPath));
   const merged = withDraft(base, draft, target);
   const cross = crossCheck(merged);
@@ -171,9 +179,14 @@ export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: 
   const after = await checkCases(files, merged);
   if (!before.ok) return bad(before.issues);
   if (!after.ok) return bad(after.issues);
-  const dropped = rankChanges(before.value, after.value).filter((c) => c.droppedOut);
+  const moved = rankChanges(before.value, after.value).filter((c) => c.before !== c.after);
+  const dropped = moved.filter((c) => c.droppedOut);
   const broke = dropped.map((c) => `  ${c.id} (${c.expected}): rank ${c.before} → ${c.after || 'absent'}`);
-  if (dropped.length && !force) return { code: 1, err: [`Not adopted: ${dropped.length} recorded case(s) would leave the top 3:`, ...broke, 'Review the draft, or adopt with --force.'].join('\n') };
+  // Every case whose confirmed cause moves, up or down, not only those that leave the top 3.
+  const changeLines = moved.length
+    ? ['Rank changes (confirmed cause, before → after):', ...moved.map((c) => `  ${c.droppedOut ? 'OUT ' : '    '}${c.id} (${c.expected}): ${c.before || 'absent'} → ${c.after || 'absent'}`)]
+    : ['No recorded case changes rank.'];
+  if (dropped.length && !force) return { code: 1, err: [`Not adopted: ${dropped.length} recorded case(s) would leave the top 3:`, ...broke, ...changeLines, 'Review the draft, or adopt with --force.'].join('\n') };
   try {
     const { causes, checks, ...rules } = draft;
     writeNewFile(rulesDir, basename(draftPath, '.json'), '.json', stableJson(rules, ruleFile));
@@ -183,7 +196,7 @@ export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: 
   } catch (e) {
     return bad([{ code: 'unreadable', file: rulesDir, path: '', message: `could not adopt the draft: ${(e as Error).message}` }]);
   }
-  const lines = [`Adopted ${basename(draftPath)} into ${rulesDir}.`];
+  const lines = [`Adopted ${basename(draftPath)} into ${rulesDir}.`, ...changeLines];
   if (dropped.length) lines.push(`Adopted with --force; these recorded cases left their top 3:`, ...broke);
   return { code: 0, out: lines.join('\n') };
 }
