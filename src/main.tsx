@@ -218,7 +218,7 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
   }
   const report = await checkCases(files, base.value, runner);
   if (!report.ok) return fail(report.issues);
-  const shown = { ...report.value, cases: report.value.cases.map((c) => ({ ...c, file: shownPath(c.file) })) };
+  const shown = { ...report.value, cases: report.value.cases.map((c) => ({ ...c, file: shownPath(c.file) })), skipped: report.value.skipped.map((s) => ({ ...s, file: shownPath(s.file) })) };
   out(opts.json ? JSON.stringify({ format: JSON_FORMATS.caseCheck, ...shown }, null, 2) : wrapText(formatCaseCheck(shown, terminalWidth()), terminalWidth()));
   return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
 }

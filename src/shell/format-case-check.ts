@@ -22,5 +22,18 @@ export function formatCaseCheck(r: CaseCheckReport, width = 100): string {
     renderTable(['rank', '', 'case', 'confirmed cause', 'led by'], rows, new Set([0])),
     '',
     `${r.total} cases: ${r.top1} ranked first (${pct(r.top1)}), ${r.top3} in the top 3 (${pct(r.top3)}).`,
+    ...skippedLines(r.skipped),
   ].join('\n');
+}
+
+/** Why files were not run, so a lead knows the count above is not every file. */
+function skippedLines(skipped: CaseCheckReport['skipped']): string[] {
+  if (!skipped.length) return [];
+  const WHY = { 'no-outcome': 'no confirmed cause recorded', 'new-cause': 'a new cause not yet adopted into the catalogue' } as const;
+  const lines = [`Skipped ${skipped.length} file${skipped.length === 1 ? '' : 's'}:`];
+  for (const why of ['no-outcome', 'new-cause'] as const) {
+    const files = skipped.filter((s) => s.why === why).map((s) => s.file);
+    if (files.length) lines.push(`  ${files.length} with ${WHY[why]}: ${files.join(', ')}`);
+  }
+  return lines;
 }

@@ -8,7 +8,7 @@ import { caseSchema, type CaseFile } from '../knowledge/case-schema.js';
 import { stableJson } from '../knowledge/canonical.js';
 import { caseFromJson, loadCase, loadCaseFile } from '../knowledge/load-case.js';
 import { crossCheck, loadRuleBase, type RuleBase } from '../knowledge/load-rules.js';
-import { readValidated } from '../knowledge/read-json.js';
+import { readJson, readValidated } from '../knowledge/read-json.js';
 import { formatIssues, type Issue } from '../knowledge/result.js';
 import { causesFile, checksFile, draftFile, ruleFile } from '../knowledge/rulebase-schema.js';
 import { checkCases, type CaseCheckReport } from '../engine/check-cases.js';
@@ -46,10 +46,34 @@ export function caseFiles(dir: string): string[] {
 export function addCase(file: string, json: unknown, casesDir: string, base: RuleBase, today: string): Outcome {
   const c = caseFromJson(file, json, new Set(base.causes.map((x) => x.id)));
   if (!c.ok) return bad(c.issues);
+  // A valid case is filed whatever these say; they are for the lead to act on.
+  const warnings: string[] = [];
+  const twin = sameJobIn(casesDir, c.value.raw);
+  if (twin) warnings.push(`dctriage: warning: the same job is already filed as ${shown(twin)}`);
+  if (!c.value.job.outcome?.cause && !c.value.job.outcome?.newCause) warnings.push('dctriage: warning: the job names no confirmed cause (outcome.cause or outcome.newCause): cases check and rules draft will skip it');
   const filed = fileCase(c.value.raw, c.value.job, casesDir, today);
   if (!filed.ok) return bad(filed.issues);
   const note = filed.value.requestedId ? ` (id "${filed.value.requestedId}" was taken: filed as "${filed.value.id}")` : '';
-  return { code: 0, out: `Filed ${shown(filed.value.file)}${note}` };
+  return { code: 0, out: `Filed ${shown(filed.value.file)}${note}`, ...(warnings.length ? { err: warnings.join('\n') } : {}) };
+}
+
+/** A case file in `dir` holding the same job (its id and "$schema" aside), if any. */
+function sameJobIn(dir: string, raw: object): string | undefined {
+  const content = (v: unknown) => {
+    const { id: _id, $schema: _schema, ...rest } = v as Record<string, unknown>;
+    return stableJson(rest, caseSchema);
+  };
+  const wanted = content(raw);
+  let files: string[];
+  try {
+    files = caseFiles(dir);
+  } catch {
+    return undefined; // filing will say what is wrong with the folder
+  }
+  return files.find((f) => {
+    const r = readJson(f);
+    return r.ok && r.value !== null && typeof r.value === 'object' && content(r.value) === wanted;
+  });
 }
 
 /** A lead's review of a saved job: its report on stdout, and with `closeBy` the job marked closed. */
@@ -153,7 +177,7 @@ export async function checkRules(rulesDir: string, casesDir: string, asJson: boo
     }
     report = { clean: findings.length === 0, findings, cases: cases.value };
   }
-  report = { ...report, findings: report.findings.map((f) => ({ ...f, file: shownPath(f.file) })), ...(report.cases ? { cases: { ...report.cases, cases: report.cases.cases.map((c) => ({ ...c, file: shownPath(c.file) })) } } : {}) };
+  report = { ...report, findings: report.findings.map((f) => ({ ...f, file: shownPath(f.file) })), ...(report.cases ? { cases: { ...report.cases, cases: report.cases.cases.map((c) => ({ ...c, file: shownPath(c.file) })), skipped: report.cases.skipped.map((x) => ({ ...x, file: shownPath(x.file) })) } } : {}) };
   const err = report.findings.map((f) => `${f.file}: ${f.about ? `${f.about}: ` : ''}${f.message}`).join('\n');
   const text = asJson ? json({ format: JSON_FORMATS.ruleCheck, ...report }) : report.clean ? 'Rule folder clean: every check passed and every recorded case ranks in its top 3.' : '';
   return { code: report.clean ? 0 : 1, ...(text ? { out: text } : {}), ...(err ? { err } : {}) };

@@ -280,3 +280,42 @@ describe('rules adopt shows every case whose rank changes', () => {
     expect(listed.sort()).toEqual(moved.sort());
   });
 });
+
+describe('cases add warns, and still files', () => {
+  it('about the same job already filed, and about a job with no cause', () => {
+    const dir = emptyDir();
+    const rules = copyOfRules();
+    const first = runCli(['cases', 'add', demo, '--cases', dir, '--rules', rules]);
+    expect(first.stderr).toBe('');
+    const again = runCli(['cases', 'add', demo, '--cases', dir, '--rules', rules]);
+    expect(again.code).toBe(0);
+    expect(again.stderr).toContain(`dctriage: warning: the same job is already filed as ${join(dir, '2026-10-14-press-feed-field-weak.json')}`);
+    const noCause = { ...raw(), id: 'no-cause-yet', outcome: { date: '2026-10-15', notes: 'left running' } };
+    const file = join(emptyDir(), 'job.json');
+    writeFileSync(file, JSON.stringify(noCause));
+    const r = runCli(['cases', 'add', file, '--cases', dir, '--rules', rules]);
+    expect(r.code).toBe(0);
+    expect(r.stderr).toContain('warning: the job names no confirmed cause');
+    expect(r.stderr).not.toContain('already filed');
+    expect(jsonFiles(dir)).toHaveLength(3);
+  });
+});
+
+describe('cases check says what it skipped', () => {
+  it('counts the files without a cause and those with a new cause, and names them', () => {
+    const dir = emptyDir();
+    cpSync(demo, join(dir, 'a.json'));
+    writeFileSync(join(dir, 'b.json'), JSON.stringify({ ...raw(), id: 'b', outcome: { date: '2026-10-15' } }));
+    writeFileSync(join(dir, 'c.json'), JSON.stringify({ ...raw(), id: 'c', outcome: { newCause: { id: 'rheostat-track-worn', title: 'Rheostat track worn' } } }));
+    const text = runCli(['cases', 'check', dir], { env: { COLUMNS: '300' } });
+    expect(text.stdout).toContain('1 cases: 1 ranked first');
+    expect(text.stdout).toContain('Skipped 2 files:');
+    expect(text.stdout).toMatch(/1 with no confirmed cause recorded: \S*b\.json/);
+    expect(text.stdout).toMatch(/1 with a new cause not yet adopted into the catalogue: \S*c\.json/);
+    const j = JSON.parse(runCli(['cases', 'check', dir, '--json']).stdout);
+    expect(j.skipped).toEqual([
+      { file: expect.stringMatching(/b\.json$/), why: 'no-outcome' },
+      { file: expect.stringMatching(/c\.json$/), why: 'new-cause' },
+    ]);
+  });
+});
