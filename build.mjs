@@ -46,7 +46,7 @@ rmSync('dist', { recursive: true, force: true });
 const noDevtools = {
   name: 'no-devtools',
   setup(b) {
-    b.onResolve({ filter: /^react-devtools-core$|\/devtools(-window-polyfill)?\.js$/ }, () => ({ path: join(root, 'stubs', 'react-devtools-core.js') }));
+    b.onResolve({ filter: /^react-devtools-core$|\/devtools(-window-polyfill)?\.js$/ }, () => ({ path: join(root, 'stubs', 'dev-only.js') }));
   },
 };
 

@@ -25,7 +25,9 @@ const npm = (args, cwd) => execFileSync('npm', args, { cwd, encoding: 'utf8', en
 const packed = JSON.parse(npm(['pack', '--json', '--pack-destination', work], root))[0];
 const files = packed.files.map((f) => f.path);
 check('the tarball holds the command, its rules, cases, schemas and the licence', ['dist/cli.mjs', 'dist/core.cjs', 'rules/causes.json', 'schemas/dc-case-1.schema.json', 'LICENSE', 'README.md', 'docs/json-output.md'].every((f) => files.includes(f)), files.join(' '));
-check('no devtools chunk is shipped', !files.some((f) => /devtools/i.test(f)) && !files.filter((f) => f.startsWith('dist/')).some((f) => readFileSync(join(root, f), 'utf8').includes('react-devtools-core/')), files.filter((f) => /devtools/i.test(f)).join(' '));
+// esbuild heads each bundled module with its path: Ink's devtools modules must not be among them.
+const shipped = files.filter((f) => f.startsWith('dist/') && f.endsWith('js'));
+check('no devtools chunk or code is shipped', !files.some((f) => /devtools/i.test(f)) && !shipped.some((f) => /ink\/build\/devtools|node_modules\/react-devtools-core/.test(readFileSync(join(root, f), 'utf8'))), files.filter((f) => /devtools/i.test(f)).join(' '));
 check('no source, test or build script is shipped', !files.some((f) => /^(src|test|test-browser|test-pack|scripts|bench)\//.test(f) || f === 'build.mjs'));
 
 const manifest = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8'));
