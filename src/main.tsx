@@ -357,7 +357,7 @@ async function dialogue(
   };
   const { runDialogue } = await install.loadScreens();
   const ended = await runDialogue({ notice: safety.value.notice, color, prepare });
-  if (ended.message) process.stderr.write(ended.message + '\n');
+  if (ended.message) process.stderr.write(withProgramName(ended.message) + '\n');
   if (ended.code !== 0 && ended.code !== 2) process.stderr.write(resumeHint(sessionFile, opts.session !== undefined) + '\n');
   return ended.code;
 }
