@@ -4,7 +4,7 @@
 // Then seals the built-in rules (src/knowledge/rule-seal.ts) and writes the code cache.
 import { build } from 'esbuild';
 import { spawnSync } from 'node:child_process';
-import { chmodSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { chmodSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -23,8 +23,32 @@ const common = {
   define: { 'process.env.NODE_ENV': '"production"', DCTRIAGE_VERSION: JSON.stringify(pkg.version) },
 };
 
+// `--if-stale` (npm start's prestart): build only when a source is newer than the last build, so
+// `npm install && npm start` works in a fresh clone without building on every start.
+if (process.argv.includes('--if-stale') && builtAfterSources()) process.exit(0);
+
+function builtAfterSources() {
+  const built = ['dist/cli.mjs', 'dist/core.cjs.cache'].map((f) => (existsSync(f) ? statSync(f).mtimeMs : 0));
+  const newest = (path) => {
+    const st = statSync(path);
+    return st.isDirectory() ? Math.max(0, ...readdirSync(path).map((f) => newest(join(path, f)))) : st.mtimeMs;
+  };
+  return Math.min(...built) > Math.max(...['src', 'rules', 'scripts', 'build.mjs', 'package.json'].map(newest));
+}
+
 // Old chunks would pile up under their hashed names.
 rmSync('dist', { recursive: true, force: true });
+
+/**
+ * Ink imports its devtools module (and react-devtools-core) only when DEV=true, but a bundler
+ * still emits them as a chunk. Both become empty modules: the package ships no devtools.
+ */
+const noDevtools = {
+  name: 'no-devtools',
+  setup(b) {
+    b.onResolve({ filter: /^react-devtools-core$|\/devtools(-window-polyfill)?\.js$/ }, () => ({ path: join(root, 'stubs', 'dev-only.js') }));
+  },
+};
 
 await build({
   ...common,
@@ -36,8 +60,7 @@ await build({
   // The launcher stays small; the shell and the screens (Ink, React) are chunks loaded when needed.
   // A single file would also keep all of mathjs, which a lazily loaded part defeats tree-shaking for.
   splitting: true,
-  // ink imports react-devtools-core statically; it is never used at run time.
-  alias: { 'react-devtools-core': './stubs/react-devtools-core.js' },
+  plugins: [noDevtools],
   // CJS dependencies (signal-exit, json-rules-engine) call require() inside the ESM bundle.
   banner: { js: '#!/usr/bin/env node\nimport { createRequire as __createRequire } from "node:module"; const require = __createRequire(import.meta.url);' },
 });

@@ -2,14 +2,15 @@
  * The shell: arguments, files, output and exit codes. Everything it calls is pure or returns
  * coded issues; only this file prints or exits.
  */
-import { readdirSync } from 'node:fs';
-import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { existsSync, readdirSync } from 'node:fs';
+import { dirname, isAbsolute, join, relative, resolve } from 'node:path';
 import { computeExpectations } from './model/expected.js';
-import { loadCaseFile, modelInput } from './knowledge/load-case.js';
+import { caseFromJson, modelInput } from './knowledge/load-case.js';
 import { loadRuleBase, type RuleBase } from './knowledge/load-rules.js';
 import { readRuleSeal, type RuleSeal } from './knowledge/rule-seal.js';
-import { formatIssues, ok, type Issue, type Result } from './knowledge/result.js';
-import { readJson, readValidated, validate } from './knowledge/read-json.js';
+import { failed, formatIssues, ok, type Issue, type Result } from './knowledge/result.js';
+import { MAX_FILE_BYTES, parseJsonText, readJson, readValidated, validate } from './knowledge/read-json.js';
 import { caseSchema, machineSchema } from './knowledge/case-schema.js';
 import { safetyFile } from './knowledge/rulebase-schema.js';
 import { diagnose } from './engine/diagnose.js';
@@ -30,9 +31,14 @@ import { readSettings, resolveKnowledge } from './shell/settings.js';
 import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
-import { USAGE } from './shell/help.js';
+import { helpFor } from './shell/help.js';
 import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
-import { parseCommandLine } from './shell/cli-options.js';
+import { readCommandLine } from './shell/cli-options.js';
+import { JSON_FORMATS } from './shell/json-formats.js';
+import { wantsColor } from './shell/color.js';
+import { wrapText } from './shell/wrap.js';
+import { localDate } from './report/clock-time.js';
+import { jobReport, type ProducedBy } from './report/job-report.js';
 import type { Prepared } from './ui/run-dialogue.js';
 
 /** Loads the dialogue's screens (Ink, React): given by the launcher, so this module never imports them. */
@@ -73,50 +79,63 @@ function loadRules(dir: string) {
 
 declare const DCTRIAGE_VERSION: string;
 
-class UsageError extends Error {}
+/** A command line that cannot run; `command` names the one it was for, for the help hint. */
+class UsageError extends Error {
+  constructor(message: string, readonly command?: string) {
+    super(message);
+  }
+}
 
+/** One line per issue, each starting with the program's name as other tools' messages do. */
 function fail(issues: Issue[]): number {
-  process.stderr.write(formatIssues(issues) + '\n');
+  process.stderr.write(withProgramName(formatIssues(issues)) + '\n');
   return 2;
 }
+
+const withProgramName = (lines: string) => lines.split('\n').map((l) => `dctriage: ${l}`).join('\n');
+
+/** The version the build stamped in; "dev" when running from source. */
+const programVersion = () => (typeof DCTRIAGE_VERSION === 'string' ? DCTRIAGE_VERSION : 'dev');
 
 function out(text: string): void {
   process.stdout.write(text.endsWith('\n') ? text : text + '\n');
 }
 
+/** Text for people: long lines wrapped to the terminal with a hanging indent. */
+const outText = (text: string) => out(wrapText(text, terminalWidth()));
+
 async function main(argv: string[]): Promise<number> {
-  let parsed;
-  try {
-    parsed = parseCommandLine(argv);
-  } catch (e) {
-    throw new UsageError(optionProblem(e as NodeJS.ErrnoException));
-  }
-  const { values: opts, positionals } = parsed;
-  if (opts.help) return out(USAGE), 0;
-  if (opts.version) return out(typeof DCTRIAGE_VERSION === 'string' ? DCTRIAGE_VERSION : 'dev'), 0;
-  const [command, ...rest] = positionals;
+  const line = readCommandLine(argv);
+  if (line.kind === 'usage-error') throw new UsageError(line.message, line.command);
+  if (line.kind === 'help') return out(helpFor(line.commands, terminalWidth())), 0;
+  if (line.kind === 'version') return out(programVersion()), 0;
+  const { command, args, opts } = line;
   switch (command) {
     case 'expect': {
-      const loaded = loadJob(rest[0], 'expect', opts);
+      const loaded = await loadJob(args[0]!, opts);
       if (!loaded.ok) return fail(loaded.issues);
       const { job } = loaded.value;
       const e = computeExpectations(modelInput(job));
-      if (opts.json) out(JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2));
+      if (opts.json) out(JSON.stringify({ format: JSON_FORMATS.expectation, quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2));
       else {
         const chart = opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor());
-        out(formatExpectation(e, terminalWidth()) + (chart ? `\n\n${chart}` : ''));
+        outText(formatExpectation(e, terminalWidth()) + (chart ? `\n\n${chart}` : ''));
       }
       return 0;
     }
     case 'diagnose': {
-      const loaded = loadJob(rest[0], 'diagnose', opts);
+      if (opts.report === '-' && opts.json) throw new UsageError('--report - and --json both write to standard output: give --report a file', 'diagnose');
+      const loaded = await loadJob(args[0]!, opts);
       if (!loaded.ok) return fail(loaded.issues);
       const { base, job, raw } = loaded.value;
       const engine = buildEngine(base);
       const replay = opts.adaptive ? await replayCase(raw, buildFlow(base), engine) : undefined;
       const d = replay?.diagnosis ?? (await diagnose(job, base, engine));
+      const report = { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString(), timeZone: localTimeZone(), producedBy: producedBy(loaded.value.rulesDir) };
+      if (opts.report === '-') return out(jobReport(report)), 0;
       if (opts.json) {
         out(JSON.stringify({
+          format: JSON_FORMATS.diagnosis,
           ...(replay ? { questionsAsked: replay.questionsAsked } : {}),
           status: d.status,
           confirmed: d.confirmed,
@@ -129,12 +148,12 @@ async function main(argv: string[]): Promise<number> {
           quantities: d.expectation.quantities,
         }, null, 2));
       } else {
-        if (replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
-        out(formatDiagnosis(d, { width: terminalWidth(), color: useColor(), chart: opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor()) }));
+        if (replay) outText(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
+        outText(formatDiagnosis(d, { width: terminalWidth(), color: useColor(), chart: opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor()) }));
       }
       if (opts.report !== undefined) {
         try {
-          const where = await writeReport(opts.report, { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd());
+          const where = await writeReport(opts.report, report, process.cwd());
           process.stderr.write(`Job report written to ${where}\n`);
         } catch (e) {
           return fail([{ code: 'unreadable', file: opts.report, path: '', message: `could not write the report: ${(e as Error).message}` }]);
@@ -142,44 +161,38 @@ async function main(argv: string[]): Promise<number> {
       }
       return 0;
     }
-    case 'cases':
-      if (rest[0] === 'add') {
-        if (!rest[1]) throw new UsageError('cases add needs a case file: dctriage cases add FILE');
-        const k = knowledge(opts, false);
-        if (!k.ok) return fail(k.issues);
-        const base = loadRules(k.value.rules);
-        if (!base.ok) return fail(base.issues);
-        return print(addCase(rest[1], k.value.cases, base.value, new Date().toISOString().slice(0, 10)));
-      }
-      if (rest[0] !== 'check') throw new UsageError('cases takes a subcommand: dctriage cases check [DIR] | dctriage cases add FILE');
-      return casesCheck(rest[1], opts);
-    case 'rules': {
-      if (!['check', 'draft', 'adopt'].includes(rest[0] ?? '')) throw new UsageError('rules takes a subcommand: check, draft --from-case FILE, adopt DRAFT');
-      const k = knowledge(opts, rest[0] === 'check');
+    case 'cases add': {
+      const k = knowledge(opts, false);
       if (!k.ok) return fail(k.issues);
-      if (rest[0] === 'check') return print(await checkRules(k.value.rules, k.value.cases, !!opts.json));
       const base = loadRules(k.value.rules);
       if (!base.ok) return fail(base.issues);
-      if (rest[0] === 'draft') {
-        if (!opts['from-case']) throw new UsageError('rules draft needs --from-case FILE');
-        return print(await draftRule(opts['from-case'], k.value.rules, k.value.cases, base.value, !!opts.json));
-      }
-      if (rest[0] === 'adopt') {
-        if (!rest[1]) throw new UsageError('rules adopt needs a draft file: dctriage rules adopt DRAFT');
-        return print(await adoptDraft(rest[1], k.value.rules, k.value.cases, base.value, !!opts.force));
-      }
-      throw new UsageError(`rules ${rest[0]} is not a subcommand`);
+      const job = await readJobJson(args[0]!);
+      if (!job.ok) return fail(job.issues);
+      return print(addCase(job.value.file, job.value.json, k.value.cases, base.value, today()));
+    }
+    case 'cases check':
+      return casesCheck(args[0], opts);
+    case 'rules check':
+    case 'rules draft':
+    case 'rules adopt': {
+      const k = knowledge(opts, command === 'rules check');
+      if (!k.ok) return fail(k.issues);
+      if (command === 'rules check') return print(await checkRules(k.value.rules, k.value.cases, !!opts.json, shownPath), !opts.json);
+      const base = loadRules(k.value.rules);
+      if (!base.ok) return fail(base.issues);
+      if (command === 'rules draft') return print(await draftRule(opts['from-case']!, k.value.rules, k.value.cases, base.value, !!opts.json), !opts.json);
+      return print(await adoptDraft(args[0]!, k.value.rules, k.value.cases, base.value, !!opts.force));
     }
     case 'review': {
-      if (!rest[0]) throw new UsageError('review needs a saved job: dctriage review FILE [--close NAME]');
       const k = knowledge(opts, true);
       if (!k.ok) return fail(k.issues);
       const base = loadRules(k.value.rules);
       if (!base.ok) return fail(base.issues);
-      return print(await reviewJob(rest[0], base.value, opts.close, new Date().toISOString(), localTimeZone()));
+      return print(await reviewJob(args[0]!, base.value, opts.close, new Date().toISOString(), localTimeZone(), producedBy(k.value.rules)), false);
     }
-    case undefined:
+    case '':
     case 'resume':
+      if (opts.report === '-') throw new UsageError('the dialogue draws on standard output: give --report a file');
       return dialogue(command === 'resume', opts);
     default:
       throw new UsageError(`unknown command "${command}"`);
@@ -209,20 +222,70 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
   }
   const report = await checkCases(files, base.value, runner);
   if (!report.ok) return fail(report.issues);
-  out(opts.json ? JSON.stringify(report.value, null, 2) : formatCaseCheck(report.value));
+  const shown = { ...report.value, cases: report.value.cases.map((c) => ({ ...c, file: shownPath(c.file) })), skipped: report.value.skipped.map((s) => ({ ...s, file: shownPath(s.file) })) };
+  out(opts.json ? JSON.stringify({ format: JSON_FORMATS.caseCheck, ...shown }, null, 2) : wrapText(formatCaseCheck(shown, terminalWidth()), terminalWidth()));
   return report.value.cases.some((c) => c.rank === 0 || c.rank > 3 || (c.loop?.confirmed && !c.loop.correct)) ? 1 : 0;
 }
 
-/** A job file with the rule base in use: a recorded cause must be one of its catalogue. */
-function loadJob(file: string | undefined, command: string, opts: { rules?: string | undefined; cases?: string | undefined }) {
-  if (!file) throw new UsageError(`${command} needs a case file: dctriage ${command} FILE`);
+/** A job file (or - for standard input) with the rule base in use: a recorded cause must be one of its catalogue. */
+async function loadJob(file: string, opts: { rules?: string | undefined; cases?: string | undefined }) {
   const k = knowledge(opts, true);
   if (!k.ok) return k;
   const base = loadRules(k.value.rules);
   if (!base.ok) return base;
-  const loaded = loadCaseFile(file, causeIdsOf(base.value));
+  const read = await readJobJson(file);
+  if (!read.ok) return read;
+  const loaded = caseFromJson(read.value.file, read.value.json, causeIdsOf(base.value));
   if (!loaded.ok) return loaded;
-  return ok({ base: base.value, job: loaded.value.job, raw: loaded.value.raw });
+  return ok({ base: base.value, job: loaded.value.job, raw: loaded.value.raw, rulesDir: k.value.rules });
+}
+
+/** What messages call standard input when a job is read from it. */
+const STDIN_NAME = '(standard input)';
+
+/** The JSON of a job file, or of standard input for "-", with the name messages give it. */
+async function readJobJson(file: string): Promise<Result<{ file: string; json: unknown }>> {
+  if (file !== '-') {
+    const r = readJson(file);
+    return r.ok ? ok({ file, json: r.value }) : r;
+  }
+  const chunks: Buffer[] = [];
+  let size = 0;
+  for await (const chunk of process.stdin) {
+    chunks.push(chunk as Buffer);
+    size += (chunk as Buffer).length;
+    if (size > MAX_FILE_BYTES) return failed({ code: 'too-large', file: STDIN_NAME, path: '', message: `more than ${MAX_FILE_BYTES} bytes; a job is limited to 1 MiB` });
+  }
+  const json = parseJsonText(STDIN_NAME, Buffer.concat(chunks).toString('utf8'));
+  return json.ok ? ok({ file: STDIN_NAME, json: json.value }) : json;
+}
+
+/**
+ * A path for output: relative to the working folder when it is under it, relative to the
+ * install's folder for the built-in rules and cases (output never shows where the tool is
+ * installed), else as given.
+ */
+function shownPath(file: string): string {
+  const under = (root: string) => {
+    const r = relative(root, resolve(file));
+    return r && !r.startsWith('..') && !isAbsolute(r) ? r : undefined;
+  };
+  return under(process.cwd()) ?? under(dirname(resolve(install.rules))) ?? file;
+}
+
+/** Which tool and which rules produced a result: for the report's footer. */
+function producedBy(rulesDir: string): ProducedBy {
+  const builtIn = resolve(rulesDir) === resolve(install.rules);
+  return { version: programVersion(), rules: builtIn ? 'built-in rules' : shownPath(rulesDir), ...(builtIn ? {} : gitRevision(rulesDir)) };
+}
+
+/** The commit a rule folder is at, when it sits in a git repository (with git installed). */
+function gitRevision(dir: string): { revision?: string } {
+  const r = spawnSync('git', ['-C', dir, 'log', '-1', '--format=%h %cs'], { encoding: 'utf8', timeout: 3000, stdio: ['ignore', 'pipe', 'ignore'] });
+  const rev = r.status === 0 ? r.stdout.trim() : '';
+  if (!rev) return {};
+  const dirty = spawnSync('git', ['-C', dir, 'status', '--porcelain', '--', '.'], { encoding: 'utf8', timeout: 3000, stdio: ['ignore', 'pipe', 'ignore'] });
+  return { revision: dirty.status === 0 && dirty.stdout.trim() ? `${rev}, with uncommitted changes` : rev };
 }
 
 /** Where the rules and cases are; reading commands fall back to the built-in folders. */
@@ -230,8 +293,9 @@ function knowledge(opts: { rules?: string | undefined; cases?: string | undefine
   return resolveKnowledge(opts, process.env, process.cwd(), reading ? { rules: install.rules, cases: install.cases } : undefined);
 }
 
-function print(o: Outcome): number {
-  if (o.out) out(o.out);
+/** A lead command's outcome; `asText` wraps its output to the terminal (a report stays as written). */
+function print(o: Outcome, asText = true): number {
+  if (o.out) (asText ? outText : out)(o.out);
   if (o.err) process.stderr.write(o.err.endsWith('\n') ? o.err : o.err + '\n');
   return o.code;
 }
@@ -267,7 +331,7 @@ async function dialogue(
   // The notice is all the first frame needs; the rest of the rule base loads behind it.
   const safety = readValidated(join(rulesDir, 'safety.json'), safetyFile);
   if (!safety.ok) return fail(safety.issues);
-  const color = !process.env.NO_COLOR;
+  const color = useColor();
   const prepare = (): Prepared => {
     const base = loadRules(rulesDir);
     if (!base.ok) return { ok: false, message: formatIssues(base.issues) };
@@ -290,20 +354,28 @@ async function dialogue(
         chart: (job) => chartText({ machine: job.machine, readings: job.readings }, process.stdout.columns ?? 80, color),
         onAnswers: (answers, work) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work }),
         onSave: (answers, outcome, work) => saveJob({ ...jobFromAnswers(answers, machineFile, work), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
-        onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role),
+        onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role, rulesDir),
         onRecord: (answers, outcome, work) => recordJob({ ...jobFromAnswers(answers, machineFile, work), outcome: outcomeOf(outcome, today()) }, base.value, opts),
       },
     };
   };
   const { runDialogue } = await install.loadScreens();
   const ended = await runDialogue({ notice: safety.value.notice, color, prepare });
-  if (ended.message) process.stderr.write(ended.message + '\n');
+  if (ended.message) process.stderr.write(withProgramName(ended.message) + '\n');
+  if (ended.code !== 0 && ended.code !== 2) process.stderr.write(resumeHint(sessionFile, opts.session !== undefined) + '\n');
   return ended.code;
+}
+
+/** Said when the dialogue is interrupted: where the session is, and the command that picks it up. */
+function resumeHint(sessionFile: string, named: boolean): string {
+  if (!existsSync(sessionFile)) return 'dctriage: stopped before any answer; nothing to resume.';
+  const resume = named ? `dctriage resume --session ${JSON.stringify(sessionFile)}` : 'dctriage resume';
+  return `dctriage: stopped. The session is kept in ${sessionFile}; to carry on where you were, run: ${resume}`;
 }
 
 /** Writes the job beside the fitter as a dc-case/1 file that never replaces another. */
 function saveJob(draft: unknown): string {
-  const stem = `dctriage-job-${new Date().toISOString().slice(0, 10)}`;
+  const stem = `dctriage-job-${today()}`;
   try {
     const w = writeNewFile(process.cwd(), stem, '.json', JSON.stringify(draft, null, 2) + '\n');
     return `Saved the job as ${w.file}`;
@@ -312,21 +384,23 @@ function saveJob(draft: unknown): string {
   }
 }
 
-const today = () => new Date().toISOString().slice(0, 10);
+/** Today where the fitter is: files are named and outcomes dated by it. */
+const today = () => localDate();
 /** This machine's time zone (TZ, else the system's), for the times in a report. */
 const localTimeZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone;
-const terminalWidth = () => process.stdout.columns ?? 80;
-/** Colour only on a terminal, and never with NO_COLOR; the chart itself is drawn either way. */
-const useColor = () => !process.env.NO_COLOR && process.stdout.isTTY === true;
+/** The terminal's width; COLUMNS when the output is not a terminal (piped, or in a test). */
+const terminalWidth = () => process.stdout.columns || Number(process.env.COLUMNS) || 80;
+/** Colour as Node's hasColors() decides (NO_COLOR, FORCE_COLOR, TERM=dumb); the chart itself is drawn either way. */
+const useColor = () => wantsColor(process.stdout);
 
 /** The job report from the dialogue as it stands: the last result shown and the work done since. */
-async function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role): Promise<string> {
+async function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role, rulesDir: string): Promise<string> {
   const draft = jobFromAnswers(state.answers, machineFile, state.work);
   const parsed = parseDraft(draft);
   const result = latestDiagnosis(state);
   if (!parsed.ok || !result) return 'No report yet: the result is not on screen.';
   try {
-    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd());
+    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString(), timeZone: localTimeZone(), producedBy: producedBy(rulesDir) }, process.cwd());
     return `Job report written to ${where}`;
   } catch (e) {
     return `Could not write the report: ${(e as Error).message}. The session is kept.`;
@@ -348,12 +422,6 @@ function recordJob(draft: Record<string, unknown>, base: RuleBase, opts: { rules
 
 function causeIdsOf(base: RuleBase): Set<string> {
   return new Set(base.causes.map((c) => c.id));
-}
-
-/** Node's message for a bad option, in a line of our own. */
-function optionProblem(e: NodeJS.ErrnoException): string {
-  const unknown = e.code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION' ? /Unknown option '([^']*)'/.exec(e.message) : null;
-  return unknown ? `unknown option ${unknown[1]}` : e.message;
 }
 
 let watchingStdout = false;
@@ -382,7 +450,7 @@ export async function runCli(argv: string[], from: Install): Promise<void> {
       process.stderr.write(`dctriage: ${e.message}\n`);
       process.exitCode = 2;
     } else if (e instanceof UsageError) {
-      process.stderr.write(`dctriage: ${e.message}\nRun "dctriage --help" for usage.\n`);
+      process.stderr.write(`dctriage: ${e.message}\nRun "dctriage help${e.command ? ` ${e.command}` : ''}" for usage.\n`);
       process.exitCode = 2;
     } else {
       process.stderr.write(`dctriage: internal error: ${(e as Error).message}\nPlease report this with the file you gave.\n`);

@@ -32,9 +32,15 @@ const MIN_COLUMNS = 8;
 
 /** Neutral East Asian width, so the column count holds in every terminal. */
 export const MEASURED_MARKER = '◉';
-/** Legend samples: the same dots a flat stretch of each curve leaves. */
+/** Legend samples: the same glyphs a flat stretch of each curve leaves. */
 export const HEALTHY_SAMPLE = '⠤⠤';
-export const FIELD_SAMPLE = '⠄⠄';
+/**
+ * The measured-field curve is drawn in its own glyph, one per cell it passes, not in braille: dots
+ * of another density read apart only on a flat stretch, and two braille curves merge where they
+ * meet. Where both curves share a cell, the healthy one is drawn.
+ */
+export const FIELD_GLYPH = '·';
+export const FIELD_SAMPLE = FIELD_GLYPH.repeat(2);
 
 const BRAILLE_BASE = 0x2800;
 /** Bit for dot (column 0–1, row 0–3) of a braille cell. */
@@ -165,8 +171,7 @@ export function renderSpeedChart(curves: SpeedCurves, opts: TextChartOptions = {
     bits[Math.floor(dot.y / 4) * columns + Math.floor(dot.x / 2)]! |= BRAILLE_BITS[dot.x % 2 as 0 | 1][dot.y % 4 as 0 | 1 | 2 | 3];
   };
   for (const dot of traceDots(layout, curves.healthy)) setDot(healthyBits, dot);
-  // Every other dot: the field curve must read differently without colour.
-  if (curves.withMeasuredField) traceDots(layout, curves.withMeasuredField).forEach((dot, k) => k % 2 === 0 && setDot(fieldBits, dot));
+  if (curves.withMeasuredField) for (const dot of traceDots(layout, curves.withMeasuredField)) setDot(fieldBits, dot);
   const marker = curves.measured ? cellOf(layout, curves.measured) : undefined;
 
   const speedRows = new Map<number, string>();
@@ -192,7 +197,7 @@ export function renderSpeedChart(curves: SpeedCurves, opts: TextChartOptions = {
         const h = healthyBits[row * columns + column]!;
         const f = fieldBits[row * columns + column]!;
         // A blank cell as a space, so lines trim and copy cleanly.
-        cell = h | f ? { style: h ? 'healthy' : 'field', text: String.fromCharCode(BRAILLE_BASE + (h | f)) } : { style: undefined, text: ' ' };
+        cell = h ? { style: 'healthy', text: String.fromCharCode(BRAILLE_BASE + h) } : f ? { style: 'field', text: FIELD_GLYPH } : { style: undefined, text: ' ' };
       }
       if (cell.style === run.style) run.text += cell.text;
       else {

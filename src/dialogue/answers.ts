@@ -5,6 +5,7 @@
 import { describeQuantityError, DIMENSIONS, normalizeQuantityText, parseQuantity } from '../units/quantity.js';
 import { quote } from '../units/quote.js';
 import type { DialogueQuestion } from './questions.js';
+import { editDistance as distance } from './edit-distance.js';
 
 export type AnswerValue = { kind: 'unknown' } | { kind: 'one'; value: string } | { kind: 'many'; values: string[] } | { kind: 'text'; value: string };
 
@@ -63,17 +64,6 @@ function pickOption(options: { value: string; label: string }[], text: string) {
     // So is a unique word of a label: "blower" for "separate blower".
     (t.length >= 3 ? unique(options.filter((o) => o.label.toLowerCase().split(/[\s(),/]+/).some((w) => w.startsWith(t)))) : undefined)
   );
-}
-
-/** Edit distance, for "did you mean": a typed word is short, so the plain table is enough. */
-function distance(a: string, b: string): number {
-  let prev = Array.from({ length: b.length + 1 }, (_, j) => j);
-  for (let i = 1; i <= a.length; i++) {
-    const row = [i];
-    for (let j = 1; j <= b.length; j++) row[j] = Math.min(prev[j]! + 1, row[j - 1]! + 1, prev[j - 1]! + (a[i - 1] === b[j - 1] ? 0 : 1));
-    prev = row;
-  }
-  return prev[b.length]!;
 }
 
 /** ' (did you mean "shunt"?)' when one choice is a slip of the keyboard away, or the choices a word fits. */

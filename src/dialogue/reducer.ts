@@ -98,6 +98,15 @@ function finish(state: DialogueState, because: string): DialogueState {
   return { ...state, phase: 'result', endedBecause: because, log: [...state.log, { kind: 'result', diagnosis: d, because }] };
 }
 
+/**
+ * `done` typed by the fitter. Before the machine's connection is known there is no job to
+ * diagnose, so no result would ever come: say so at once instead of waiting for one.
+ */
+function finishAsked(state: DialogueState, ctx: DialogueContext): DialogueState {
+  if (parseDraft(draftOf(state, ctx)).ok) return finish(state, 'you asked for the result');
+  return { ...state, log: [...state.log, { kind: 'note', text: 'Nothing to go on yet: answer at least what kind of machine it is, then type done again (or press Ctrl-C to leave).' }] };
+}
+
 export function draftOf(state: DialogueState, ctx: DialogueContext) {
   return jobFromAnswers(state.answers, ctx.machineFile, state.work);
 }
@@ -145,7 +154,7 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   const text = cleanInput(typed);
   const word = text.toLowerCase();
   const base = { ...state, error: undefined, confirming: undefined };
-  if (state.phase === 'notice') return { ...base, phase: 'asking' };
+  if (state.phase === 'notice') return word === 'done' ? finishAsked({ ...base, phase: 'asking' }, ctx) : { ...base, phase: 'asking' };
   if (state.confirming && ['yes', 'y', 'keep'].includes(word)) {
     const answer = state.confirming.answer;
     return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer: { ...answer, shown: `${answer.shown} (kept after asking back)` } }] }, [...state.answers, answer]);
@@ -169,7 +178,7 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   if (word === 'report') return state.phase === 'result' ? { ...base, request: 'report' } : { ...base, error: 'the report comes with the result: type done to finish first' };
   if (word === 'record') return state.phase === 'result' ? { ...base, phase: 'recording', outcome: [] } : { ...base, error: 'record comes with the result: type done to finish first' };
   if (word === 'save') return state.phase === 'result' ? { ...base, request: 'save' } : { ...base, error: 'save comes with the result: type done to finish first' };
-  if (word === 'done') return state.phase === 'asking' ? finish(base, 'you asked for the result') : base;
+  if (word === 'done') return state.phase === 'asking' ? finishAsked(base, ctx) : base;
   if (state.phase === 'finishing') return { ...base, error: 'the result is on its way: a moment' };
   if (state.phase === 'result') return { ...base, error: 'the questions are finished: type start N, done N, report, record or save, back to change the last answer, or press Ctrl-C to leave' };
   const step = currentStep(state, ctx);

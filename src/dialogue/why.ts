@@ -23,8 +23,9 @@ export function whyAsked(q: DialogueQuestion, flow: Flow, d: Diagnosis | undefin
     const l = cq.likelihood.get(id) ?? [];
     const best = l.indexOf(Math.max(...l));
     const spread = Math.max(...l) - Math.min(...l) < 0.05;
-    return spread ? `  ${title.get(id)}: no answer expected more than another` : `  ${title.get(id)}: expects ${label(best)} (${Math.round((l[best] ?? 0) * 100)} %)`;
+    return spread ? `  ${title.get(id)}: no answer expected more than another` : `  ${title.get(id)}: ${(l[best] ?? 0) >= 0.7 ? 'most likely' : 'more likely'} ${label(best)}`;
   });
   const bits = informationGain(cq, b);
-  return [`Asked because the answer tells the leading causes apart (${bits >= 0.3 ? 'strongly' : bits >= 0.1 ? 'fairly well' : 'a little'}; ${bits.toFixed(2)} bits):`, ...lines].join('\n');
+  const how = bits >= 0.3 ? 'tells the leading causes well apart' : bits >= 0.1 ? 'tells some of the leading causes apart' : 'tells the leading causes apart only a little';
+  return [`Asked because the answer ${how}:`, ...lines].join('\n');
 }

@@ -40,6 +40,8 @@ export interface CaseCheckReport {
   top1: number;
   top3: number;
   cases: CaseRank[];
+  /** Files not run: no confirmed cause recorded, or a cause the catalogue does not have yet. */
+  skipped: { file: string; why: 'no-outcome' | 'new-cause' }[];
 }
 
 export async function checkCases(files: string[], base: RuleBase, runner?: CaseRunner): Promise<Result<CaseCheckReport>> {
@@ -49,6 +51,7 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
   const causeIds = new Set(base.causes.map((c) => c.id));
   const issues: Issue[] = [];
   const cases: CaseRank[] = [];
+  const skipped: CaseCheckReport['skipped'] = [];
   for (const file of files) {
     const c = loadCaseFile(file, causeIds);
     if (!c.ok) {
@@ -57,7 +60,10 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
     }
     const { job, raw } = c.value;
     const expected = job.outcome?.cause;
-    if (expected === undefined) continue;
+    if (expected === undefined) {
+      skipped.push({ file, why: job.outcome?.newCause ? 'new-cause' : 'no-outcome' });
+      continue;
+    }
     const { ranked, questionsAsked } = await run(job, raw);
     const loop = job.checks?.length ? await replayChecks(job, expected, base, engine) : undefined;
     cases.push({ id: job.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}), ...(loop ? { loop } : {}) });
@@ -68,6 +74,7 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
     top1: cases.filter((c) => c.rank === 1).length,
     top3: cases.filter((c) => c.rank >= 1 && c.rank <= 3).length,
     cases,
+    skipped,
   });
 }
 

@@ -3,6 +3,7 @@
  * causes no rule can reach, rules that can never fire, a cause ruled out and supported by the
  * same conditions, questions no rule uses.
  */
+import { placeholderTexts } from './draft-placeholders.js';
 import { join } from 'node:path';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import { factsRead, leavesOf } from '../knowledge/load-rules.js';
@@ -10,7 +11,7 @@ import type { Condition, Leaf } from '../knowledge/rulebase-schema.js';
 import { quantitiesFedBy } from '../model/feeds.js';
 
 export interface RuleFinding {
-  kind: 'unreachable-cause' | 'never-fires' | 'ruled-out-and-supported' | 'unused-question' | 'schema' | 'case-out-of-top-3';
+  kind: 'unreachable-cause' | 'never-fires' | 'ruled-out-and-supported' | 'unused-question' | 'placeholder-text' | 'schema' | 'case-out-of-top-3';
   file: string;
   /** The rule, cause, question or case it is about. */
   about: string;
@@ -92,5 +93,9 @@ export function reviewRuleBase(base: RuleBase): RuleFinding[] {
       read.has('symptoms');
     if (!used) findings.push({ kind: 'unused-question', file: questionsFile, about: `questions[${k}] (${q.id})`, message: `no rule uses the answer to question "${q.id}"` });
   });
+  for (const p of placeholderTexts(base.causes, base.checks)) {
+    const file = join(base.dir, p.path.startsWith('causes') ? 'causes.json' : 'checks.json');
+    findings.push({ kind: 'placeholder-text', file, about: `${p.path} (${p.about})`, message: `still the draft's placeholder ${JSON.stringify(p.text)}: write what a fitter needs before this reaches one` });
+  }
   return findings;
 }

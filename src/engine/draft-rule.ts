@@ -5,6 +5,7 @@
  * confirmed cause. The weight is the smallest that ranks this case's cause first (else in its top
  * 3) against the rule base as it stands.
  */
+import { PLACEHOLDER } from './draft-placeholders.js';
 import type { CaseFile } from '../knowledge/case-schema.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import type { Condition, DraftFile, Leaf } from '../knowledge/rulebase-schema.js';
@@ -100,8 +101,8 @@ export async function draftFromCase(target: CaseFile, others: CaseFile[], base: 
   const newCause = target.outcome?.newCause;
   const extra: Pick<DraftFile, 'causes' | 'checks'> = newCause
     ? {
-        causes: [{ id: newCause.id, title: newCause.title, description: `${newCause.title} (drafted from case ${target.id ?? ''}; describe it)`, checks: [`confirm-${newCause.id}`] }],
-        checks: [{ id: `confirm-${newCause.id}`, title: `Confirm: ${newCause.title}`, how: 'Describe how to confirm or clear this cause.', instrument: 'to be named', state: 'isolated', hazards: [], minutes: 30 }],
+        causes: [{ id: newCause.id, title: newCause.title, description: `${newCause.title} (drafted from case ${target.id ?? ''}${PLACEHOLDER.description}`, checks: [`confirm-${newCause.id}`] }],
+        checks: [{ id: `confirm-${newCause.id}`, title: `Confirm: ${newCause.title}`, how: PLACEHOLDER.how, instrument: PLACEHOLDER.instrument, state: 'isolated', hazards: [], minutes: 30 }],
       }
     : {};
   const conditions: Condition = { all: chosen.map((c) => c.leaf) };

@@ -56,7 +56,12 @@ function heldLeaves(node: unknown): TreeLeaf[] {
   return [];
 }
 
-const MACHINE_WORDS: Record<string, string> = { connection: 'connection', drive: 'drive', feedback: 'speed feedback', cooling: 'cooling', hasShuntField: 'has a shunt field', hasSeriesField: 'has a series field' };
+const MACHINE_WORDS: Record<string, string> = { connection: 'connection', drive: 'drive', feedback: 'speed feedback', cooling: 'cooling' };
+/** A yes-or-no trait of the machine, said as a sentence either way. */
+const MACHINE_TRAITS: Record<string, [string, string]> = {
+  hasShuntField: ['the machine has a shunt field', 'the machine has no shunt field'],
+  hasSeriesField: ['the machine has a series field', 'the machine has no series field'],
+};
 
 const OPERATOR_WORDS: Record<string, string> = {
   greaterThan: 'above',
@@ -74,7 +79,11 @@ export function describeTree(tree: unknown, e: Expectation, derivedWords: Derive
     const derived = derivedWords(leaf.fact);
     if (derived !== undefined) return derived;
     if (leaf.fact === 'symptoms') return SYMPTOMS[leaf.value as keyof typeof SYMPTOMS] ?? String(leaf.value);
-    if (leaf.fact in OBSERVATIONS) return `${OBSERVATIONS[leaf.fact as ObservationName].says}: ${String(leaf.factResult)}`;
+    if (leaf.fact in OBSERVATIONS) {
+      const spec = OBSERVATIONS[leaf.fact as ObservationName];
+      return `${spec.says}: ${(spec.values as Record<string, string>)[String(leaf.factResult)] ?? String(leaf.factResult).replace(/-/g, ' ')}`;
+    }
+    if (leaf.fact === 'findings') return e.findings.find((f) => f.code === leaf.value)?.says ?? String(leaf.value).replace(/-/g, ' ');
     if (name && name in QUANTITY_LABELS) {
       const q = e.quantities[name as QuantityName];
       const label = QUANTITY_LABELS[name as QuantityName];
@@ -83,6 +92,7 @@ export function describeTree(tree: unknown, e: Expectation, derivedWords: Derive
       }
       if (q) return `${label} ${withUnit(leaf.fact === 'measured' && q.measured !== null ? q.measured : q.value, q.unit)} ${OPERATOR_WORDS[leaf.operator] ?? leaf.operator} ${describeValue(leaf.value, e)}`;
     }
+    if (typeof leaf.factResult === 'boolean' && leaf.fact in MACHINE_TRAITS) return MACHINE_TRAITS[leaf.fact]![leaf.factResult ? 0 : 1];
     if (leaf.fact in MACHINE_WORDS) return `${MACHINE_WORDS[leaf.fact]}: ${String(leaf.factResult).replace(/-/g, ' ')}`;
     return `${leaf.fact} ${leaf.operator} ${JSON.stringify(leaf.value)}`;
   });

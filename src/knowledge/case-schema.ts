@@ -7,6 +7,7 @@ import * as z from 'zod';
 import { CONNECTIONS, INSULATION_CLASSES, INSULATION_SYSTEMS, TESTED_WINDINGS } from '../model/machine.js';
 import { WINDING_MATERIALS } from '../model/resistance.js';
 import { describeQuantityError, DIMENSIONS, parseQuantity, type Dimension } from '../units/quantity.js';
+import { quantityPattern } from '../units/quantity-pattern.js';
 import { COOLING, DRIVES, FEEDBACK, OBSERVATIONS, OBSERVATION_NAMES, SYMPTOM_IDS, SYMPTOMS, observationValues } from './vocabulary.js';
 
 export const SAFE_ID = /^[A-Za-z0-9][A-Za-z0-9._-]{0,79}$/;
@@ -16,7 +17,7 @@ export const CASE_FORMAT = 'dc-case/1';
 export function quantity(dimension: Dimension, description: string) {
   const unit = DIMENSIONS[dimension].unit;
   return z
-    .union([z.string(), z.number()], { error: `expected a quantity such as "12 ${unit}" or a number in ${unit}` })
+    .union([z.string().meta({ pattern: quantityPattern(dimension) }), z.number()], { error: `expected a quantity such as "12 ${unit}" or a number in ${unit}` })
     .transform((raw, ctx) => {
       const parsed = parseQuantity(raw, dimension);
       if (parsed.ok) return parsed.value;
@@ -71,10 +72,10 @@ export const machineSchema = z.strictObject({
   connection: z.enum(CONNECTIONS).meta({ description: 'how the field is connected' }),
   drive: z.enum(DRIVES).optional().meta({ description: 'what feeds the armature (absent = unknown)' }),
   feedback: z.enum(FEEDBACK).optional().meta({ description: 'speed feedback of a controlled drive (absent = unknown)' }),
-  tachoVoltsPer1000Rpm: z.number().positive().max(1000).optional(),
-  cooling: z.enum(COOLING).optional(),
-  nameplate: nameplate.optional(),
-  resistances: resistances.optional(),
+  tachoVoltsPer1000Rpm: z.number().positive().max(1000).optional().meta({ description: 'tacho generator constant: volts at 1000 r/min' }),
+  cooling: z.enum(COOLING).optional().meta({ description: 'how the machine is cooled (absent = unknown)' }),
+  nameplate: nameplate.optional().meta({ description: 'rated values from the rating plate, as written on it' }),
+  resistances: resistances.optional().meta({ description: 'winding resistances measured cold, with the temperature they were measured at' }),
   magnetization: magnetization.optional(),
   brushDrop: quantity('voltage', 'total brush contact drop').optional(),
   insulationSystem: z.enum(INSULATION_SYSTEMS).optional().meta({ description: 'thermosetting (epoxy, polyester; the default) or thermoplastic (asphaltic, shellac): IEEE 43-2013 corrects them differently' }),
@@ -112,7 +113,7 @@ export type ReadingName = keyof typeof READING_FIELDS;
 
 const readingShape = {
   ...(Object.fromEntries(Object.entries(READING_FIELDS).map(([k, f]) => [k, quantity(f.dimension, f.says)])) as { [K in ReadingName]: ReturnType<typeof quantity> }),
-  insulationTestedWinding: z.enum(TESTED_WINDINGS),
+  insulationTestedWinding: z.enum(TESTED_WINDINGS).meta({ description: 'the winding the insulation readings were taken on' }),
 };
 export const readingsSchema = z.strictObject(
   Object.fromEntries(Object.entries(readingShape).map(([k, s]) => [k, s.optional()])) as {
@@ -127,34 +128,37 @@ const observationsSchema = z.strictObject(
 );
 
 const isolation = z.strictObject({
-  points: z.array(z.string()).optional(),
-  locks: z.array(z.string()).optional(),
-  provedDeadBy: z.string().optional(),
-  tester: z.string().optional(),
+  points: z.array(z.string()).optional().meta({ description: 'where the machine was isolated (breakers, isolators, fuses)' }),
+  locks: z.array(z.string()).optional().meta({ description: 'lock or tag numbers applied' }),
+  provedDeadBy: z.string().optional().meta({ description: 'who proved the machine dead' }),
+  tester: z.string().optional().meta({ description: 'the voltage tester used to prove it dead' }),
 });
 
 const job = z.strictObject({
-  workOrder: z.string().optional(),
-  asset: z.string().optional(),
-  site: z.string().optional(),
-  fitter: z.string().optional(),
-  startedAt: z.string().optional(),
-  permit: z.string().optional(),
-  isolation: isolation.optional(),
+  workOrder: z.string().optional().meta({ description: 'the work order number' }),
+  asset: z.string().optional().meta({ description: 'the machine as the site names it; a case filed without an id takes its id from this' }),
+  site: z.string().optional().meta({ description: 'where the machine is' }),
+  fitter: z.string().optional().meta({ description: 'who did the job' }),
+  startedAt: z.string().optional().meta({ description: 'when the job started, as written' }),
+  permit: z.string().optional().meta({ description: 'the permit to work, if one was issued' }),
+  isolation: isolation.optional().meta({ description: 'how the machine was made safe' }),
   /** A lead's review: who closed the job and when. */
-  closedBy: z.string().min(1).optional(),
-  closedAt: z.string().optional(),
+  closedBy: z.string().min(1).optional().meta({ description: "the lead who closed the job (dctriage review --close)" }),
+  closedAt: z.string().optional().meta({ description: 'when the job was closed (ISO 8601 time, UTC)' }),
 });
 
 const outcome = z.strictObject({
   cause: safeId.optional().meta({ description: 'the confirmed cause: an id of the cause catalogue in use' }),
-  newCause: z.strictObject({ id: safeId, title: z.string().min(1) }).optional(),
-  notes: z.string().optional(),
-  fix: z.string().optional(),
-  date: z.iso.date({ error: 'expected a real date as YYYY-MM-DD' }).optional(),
-  recordedBy: z.string().optional(),
-  readingsAfter: readingsSchema.optional(),
-  returnedToServiceBy: z.string().optional(),
+  newCause: z
+    .strictObject({ id: safeId.meta({ description: 'a short id for the cause' }), title: z.string().min(1).meta({ description: 'its title, as a fitter would say it' }) })
+    .optional()
+    .meta({ description: 'a confirmed cause the catalogue does not have yet (instead of cause)' }),
+  notes: z.string().optional().meta({ description: 'notes for the next fitter' }),
+  fix: z.string().optional().meta({ description: 'what was done to put it right' }),
+  date: z.iso.date({ error: 'expected a real date as YYYY-MM-DD' }).optional().meta({ description: 'the local date the job was solved, YYYY-MM-DD' }),
+  recordedBy: z.string().optional().meta({ description: 'who recorded the outcome' }),
+  readingsAfter: readingsSchema.optional().meta({ description: 'readings taken after the repair' }),
+  returnedToServiceBy: z.string().optional().meta({ description: 'who returned the machine to service' }),
 });
 
 export const CHECK_RESULTS = ['normal', 'abnormal', 'inconclusive'] as const;
@@ -165,33 +169,34 @@ const workedCheck = z.strictObject({
   result: z.enum(CHECK_RESULTS).meta({ description: 'normal: nothing wrong where the check looks; abnormal: it shows a fault; inconclusive' }),
   readings: readingsSchema.optional().meta({ description: 'readings the check took, by the same names as the case file readings' }),
   observations: observationsSchema.optional().meta({ description: 'what the check saw, by the same names as the case file observations' }),
-  finding: z.string().max(4000).optional(),
+  finding: z.string().max(4000).optional().meta({ description: 'what the check found, in the words of the person who did it' }),
   /** The fitter's own word that this check found the fault: the cause it confirms. */
   confirms: safeId.optional().meta({ description: "the cause this check's finding confirms, in the fitter's judgement" }),
-  by: z.string().optional(),
-  at: z.string().optional(),
-  startedAt: z.string().optional(),
-  authorisedBy: z.string().optional(),
-  authorisation: z.enum(['present', 'remote']).optional(),
-  signedOffBy: z.string().optional(),
-  isolation: isolation.optional(),
+  by: z.string().optional().meta({ description: 'who did the check' }),
+  at: z.string().optional().meta({ description: 'when it was finished (ISO 8601 with offset)' }),
+  startedAt: z.string().optional().meta({ description: 'when it was started (ISO 8601 with offset)' }),
+  authorisedBy: z.string().optional().meta({ description: "for an apprentice's live or isolated check: the supervisor who authorised it" }),
+  authorisation: z.enum(['present', 'remote']).optional().meta({ description: 'whether that supervisor was present or authorised it remotely' }),
+  signedOffBy: z.string().optional().meta({ description: 'the supervisor who signed the check off' }),
+  isolation: isolation.optional().meta({ description: 'how the machine was made safe, when this check was the first isolated one' }),
 });
 export type WorkedCheck = z.output<typeof workedCheck>;
 
 export const caseSchema = z
   .strictObject({
-    format: z.literal(CASE_FORMAT),
-    id: safeId.optional(),
-    job: job.optional(),
-    machine: machineSchema,
+    $schema: z.string().optional().meta({ description: 'the JSON Schema this file follows, for editors (e.g. "../schemas/dc-case-1.schema.json"); dctriage does not read it' }),
+    format: z.literal(CASE_FORMAT).meta({ description: 'the file format and its version' }),
+    id: safeId.optional().meta({ description: "the case's id: letters, digits, \".\", \"_\" or \"-\"" }),
+    job: job.optional().meta({ description: 'the work order: who, where, when, and how the machine was made safe' }),
+    machine: machineSchema.meta({ description: 'the machine: how it is connected and fed, its nameplate and resistances' }),
     symptoms: z
       .array(z.enum(SYMPTOM_IDS))
       .optional()
       .meta({ description: `zero or more of: ${Object.entries(SYMPTOMS).map(([k, v]) => `${k} (${v})`).join(', ')}` }),
-    observations: observationsSchema.optional(),
-    readings: readingsSchema.optional(),
+    observations: observationsSchema.optional().meta({ description: 'what was seen, heard or checked, each by its name' }),
+    readings: readingsSchema.optional().meta({ description: 'meter readings, as the meter showed them' }),
     checks: z.array(workedCheck).max(500).optional().meta({ description: 'the checks worked, in order, with their results: the troubleshooting record' }),
-    outcome: outcome.optional(),
+    outcome: outcome.optional().meta({ description: 'once solved: the confirmed cause, the fix, the readings after the repair' }),
   })
   .meta({ id: 'dc-case-1', title: 'DC machine job (dc-case/1)' });
 

@@ -13,8 +13,12 @@ export interface LoadedCase {
 /** Reads a case file once, validating it; `causeIds` is the catalogue its recorded cause must belong to. */
 export function loadCaseFile(file: string, causeIds?: ReadonlySet<string>): Result<LoadedCase> {
   const raw = readJson(file);
-  if (!raw.ok) return raw;
-  const parsed = validate(file, raw.value, caseSchema);
+  return raw.ok ? caseFromJson(file, raw.value, causeIds) : raw;
+}
+
+/** A case already read as JSON (from standard input, say); `file` names where it came from. */
+export function caseFromJson(file: string, value: unknown, causeIds?: ReadonlySet<string>): Result<LoadedCase> {
+  const parsed = validate(file, value, caseSchema);
   if (!parsed.ok) return parsed;
   const cause = parsed.value.outcome?.cause;
   if (causeIds !== undefined && cause !== undefined && !causeIds.has(cause)) {
@@ -26,7 +30,7 @@ export function loadCaseFile(file: string, causeIds?: ReadonlySet<string>): Resu
     });
   }
   // The schema accepted this very value, so it has the input shape.
-  return ok({ job: parsed.value, raw: raw.value as CaseInput });
+  return ok({ job: parsed.value, raw: value as CaseInput });
 }
 
 export function loadCase(file: string, causeIds?: ReadonlySet<string>): Result<CaseFile> {

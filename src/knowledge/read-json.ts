@@ -31,8 +31,14 @@ export function readJsonFile(file: string): Result<{ text: string; value: unknow
   } catch (e) {
     return failed({ code: 'unreadable', file, path: '', message: describeFsError(e) });
   }
+  const value = parseJsonText(file, text);
+  return value.ok ? ok({ text, value: value.value }) : value;
+}
+
+/** JSON text read elsewhere (standard input), with the same message as a file's. */
+export function parseJsonText(file: string, text: string): Result<unknown> {
   try {
-    return ok({ text, value: JSON.parse(text) as unknown });
+    return ok(JSON.parse(text) as unknown);
   } catch (e) {
     return failed({ code: 'not-json', file, path: '', message: `not valid JSON (${oneLine((e as Error).message, 120)})` });
   }

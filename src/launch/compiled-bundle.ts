@@ -9,7 +9,7 @@
  * Only the bundle next to the launcher is ever compiled here; no data file is.
  */
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
+import { readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, resolve } from 'node:path';
 import { Script } from 'node:vm';
@@ -58,6 +58,23 @@ export function runBundle(bundleFile: string, cacheFile: string | undefined): Co
 /** The cache as written by writeCodeCache: the source's digest, then V8's data. */
 export function codeCacheBytes(bundle: CompiledBundle): Buffer {
   return Buffer.concat([bundle.digest, bundle.script.createCachedData()]);
+}
+
+/**
+ * Writes a fresh cache after a run whose cache was missing or refused (Node was upgraded, or the
+ * cache came from the machine that packed the install), so the next start is quick again without
+ * a rebuild. An install folder that cannot be written is left as it is.
+ */
+export function refreshCodeCache(bundle: CompiledBundle, cacheFile: string): boolean {
+  const tmp = `${cacheFile}.${process.pid}.tmp`;
+  try {
+    writeFileSync(tmp, codeCacheBytes(bundle));
+    renameSync(tmp, cacheFile);
+    return true;
+  } catch {
+    rmSync(tmp, { force: true });
+    return false;
+  }
 }
 
 function cacheFor(cacheFile: string, digest: Buffer): Buffer | undefined {

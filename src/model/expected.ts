@@ -17,7 +17,7 @@ import { insulationJudgement } from './families/insulation.js';
 import { plainReferences } from './families/references.js';
 
 export type { Expectation, Finding, Missing, Quantity } from './families/context.js';
-export { DEFAULT_BRUSH_DROP_V } from './families/rated-point.js';
+export { DEFAULT_BRUSH_DROP_V, nameplateHint } from './families/rated-point.js';
 
 export interface ModelInput {
   machine: ModelMachine;

@@ -22,3 +22,16 @@ export function clockTime(iso: string, timeZone?: string): string {
   const localDate = `${part('year')}-${part('month')}-${part('day')}`;
   return `${localDate} ${part('hour')}:${part('minute')} ${offset} (${localDate === m[1] ? m[2] : `${m[1]} ${m[2]}`} UTC)`;
 }
+
+/**
+ * The calendar date where the person is (TZ, else the system's zone), as YYYY-MM-DD: what a file
+ * filed in the evening is named by, not the UTC date, which in a western zone is already tomorrow.
+ * "2026-12-01T03:30:00Z" in America/Chicago → "2026-11-30".
+ */
+export function localDate(at: Date = new Date(), timeZone?: string): string {
+  try {
+    return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(at);
+  } catch {
+    return at.toISOString().slice(0, 10); // a zone this Node does not know
+  }
+}

@@ -8,6 +8,7 @@ import { stableJson } from '../knowledge/canonical.js';
 import { readJson } from '../knowledge/read-json.js';
 import { failed, ok, type Result } from '../knowledge/result.js';
 import { writeNewFile, type WriteOptions } from './safe-write.js';
+import { idFromTitle } from './id-from-title.js';
 
 export interface Filed {
   file: string;
@@ -16,9 +17,6 @@ export interface Filed {
   requestedId?: string;
 }
 
-function slug(text: string): string {
-  return text.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60);
-}
 
 export function idsIn(dir: string): Set<string> {
   const ids = new Set<string>();
@@ -31,7 +29,7 @@ export function idsIn(dir: string): Set<string> {
 
 /** `raw` is the case as written (quantities as typed); `parsed` says it is valid. */
 export function fileCase(raw: Record<string, unknown>, parsed: CaseFile, dir: string, today: string, opts: WriteOptions = {}): Result<Filed> {
-  const wanted = parsed.id ?? (slug(parsed.job?.asset ?? '') || 'job');
+  const wanted = parsed.id ?? (idFromTitle(parsed.job?.asset ?? '') || 'job');
   if (!SAFE_ID.test(wanted)) return failed({ code: 'invalid', file: dir, path: 'id', message: `"${wanted}" is not a safe id` });
   const date = parsed.outcome?.date ?? today;
   let taken: Set<string>;

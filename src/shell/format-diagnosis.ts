@@ -1,6 +1,7 @@
 /** The diagnose command's readable output: warnings first, then causes, readings, checks. */
 import type { Diagnosis } from '../engine/diagnose.js';
 import { formatExpectation } from './format-expect.js';
+import { evidenceLines } from '../report/evidence-lines.js';
 
 const RESULT_WORDS = { normal: 'normal', abnormal: 'ABNORMAL', inconclusive: 'inconclusive' } as const;
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'LIVE TEST (qualified person)', isolated: 'isolated' } as const;
@@ -22,11 +23,11 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
       'Likely causes:\n' +
         d.causes
           .slice(0, 6)
-          .map((c, k) => `${k + 1}. ${c.title} (${c.id}) — score ${c.score.toFixed(2)}\n${distinct(c.evidence.map((e) => `     ${e.weight > 0 ? '+' : '−'} ${e.says}`)).join('\n')}`)
+          .map((c, k) => `${k + 1}. ${c.title} (${c.id}) — score ${c.score.toFixed(2)}\n${evidenceLines(c.evidence).map((e) => `     ${e.supports ? '+' : '−'} ${e.says}`).join('\n')}`)
           .join('\n'),
     );
   }
-  if (opts.readings !== false) parts.push('Readings against a healthy machine:\n' + formatExpectation(d.expectation, opts.width));
+  if (opts.readings !== false) parts.push('Readings against a healthy machine:\n' + formatExpectation(d.expectation, opts.width, { computed: false }));
   if (opts.chart) parts.push(opts.chart);
   const title = new Map(d.causes.map((c) => [c.id, c.title]));
   const worked = d.checks.filter((c) => c.result);
@@ -66,9 +67,4 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
   const notOffered = d.withheld.filter((w) => !w.instead);
   if (notOffered.length) parts.push('Not offered for this job:\n' + notOffered.map((w) => `  - ${w.title}: ${w.because}.`).join('\n'));
   return parts.join('\n\n');
-}
-
-/** Two rules can see the same thing: say it once. */
-function distinct(lines: string[]): string[] {
-  return [...new Set(lines)];
 }

@@ -1,30 +1,43 @@
 /** The expect command's readable output, and the readings table of the dialogue's result. */
 import type { Expectation, Quantity } from '../model/expected.js';
-import { outOfBand, QUANTITY_LABELS, type QuantityName } from '../model/quantity-names.js';
+import { QUANTITY_LABELS } from '../model/quantity-names.js';
+import { computedOnly, readingRows, rowLabel } from '../report/reading-rows.js';
 import { num, renderTable } from './table.js';
 
 const UNIT_LABEL: Record<string, string> = { degC: '°C', ohm: 'Ω', Mohm: 'MΩ', '1': '', 'N m': 'N·m' };
 const unitOf = (u: string) => UNIT_LABEL[u] ?? u;
 
-/** Full table at 100 columns and more; a compact one (units beside the numbers) below that. */
-export function formatExpectation(e: Expectation, width = 100): string {
-  const entries = Object.entries(e.quantities);
+/**
+ * The readings table (each reading once, with what a healthy machine would read), then, when
+ * `computed` is set, the values computed for this machine that no reading is set against.
+ */
+export function formatExpectation(e: Expectation, width = 100, opts: { computed?: boolean } = {}): string {
   const ratio = (r: number | null) => (r === null ? '' : `${Math.round(r * 100)} %`);
-  const flag = (name: string, q: Quantity) => (outOfBand(name as QuantityName, q.ratio, q.band) ? '!' : '');
-  const table =
-    width >= 100
-      ? renderTable(
-          ['quantity', 'expected', 'measured', 'ratio', '', 'unit', 'basis'],
-          entries.map(([name, q]) => [QUANTITY_LABELS[name as QuantityName], num(q.value), q.measured === null ? '' : num(q.measured), ratio(q.ratio), flag(name, q), unitOf(q.unit), q.basis === 'estimated' ? 'estimate' : '']),
-          new Set([1, 2, 3]),
-        )
-      : renderTable(
-          ['quantity', 'expected', 'measured', 'ratio', ''],
-          entries.map(([name, q]) => [shorten(QUANTITY_LABELS[name as QuantityName], 28), `${num(q.value)} ${unitOf(q.unit)}`.trim(), q.measured === null ? '' : num(q.measured), ratio(q.ratio), flag(name, q)]),
-          new Set([1, 2, 3]),
-        );
-  const parts = [table];
-  if (entries.some(([name, q]) => outOfBand(name as QuantityName, q.ratio, q.band))) parts.push('! outside what a healthy machine reads');
+  const withUnit = (x: number, q: Quantity) => `${num(x)} ${unitOf(q.unit)}`.trim();
+  const rows = readingRows(e);
+  // The label column gets what the numbers leave of the width.
+  const labelWidth = Math.max(14, Math.min(34, width - 32));
+  const parts: string[] = [];
+  if (rows.length) {
+    parts.push(
+      renderTable(
+        ['reading', 'measured', 'expected', 'ratio', ''],
+        rows.map((r) => [
+          shorten(r.sameReading ? `  ${rowLabel(r)}` : rowLabel(r), labelWidth),
+          r.sameReading ? '' : withUnit(r.quantity.measured, r.quantity),
+          `${withUnit(r.quantity.value, r.quantity)}${r.quantity.basis === 'estimated' ? ' (est.)' : ''}`,
+          ratio(r.quantity.ratio),
+          r.outOfBand ? '!' : '',
+        ]),
+        new Set([1, 2, 3]),
+      ),
+    );
+    if (rows.some((r) => r.outOfBand)) parts.push('! outside what a healthy machine reads');
+  } else parts.push('No readings to set against a healthy machine.');
+  const computed = computedOnly(e);
+  if (opts.computed !== false && computed.length) {
+    parts.push(renderTable(['computed for this machine', 'value', ''], computed.map(([name, q]) => [shorten(QUANTITY_LABELS[name], labelWidth), withUnit(q.value, q), q.basis === 'estimated' ? 'estimate' : '']), new Set([1])));
+  }
   if (e.findings.length) parts.push('Findings:\n' + e.findings.map((f) => `  ! ${f.says}`).join('\n'));
   if (e.missing.length) parts.push('Not computed:\n' + e.missing.map((m) => `  - ${QUANTITY_LABELS[m.quantity]}: needs ${m.needs.map(fieldWords).join(' and ')}`).join('\n'));
   if (e.assumptions.length) parts.push('Assumed:\n' + e.assumptions.map((a) => `  - ${a}`).join('\n'));

@@ -6,18 +6,21 @@ import { mkdirSync, readdirSync, unlinkSync } from 'node:fs';
 import { basename, isAbsolute, join, relative } from 'node:path';
 import { caseSchema, type CaseFile } from '../knowledge/case-schema.js';
 import { stableJson } from '../knowledge/canonical.js';
-import { loadCase, loadCaseFile } from '../knowledge/load-case.js';
+import { caseFromJson, loadCase, loadCaseFile } from '../knowledge/load-case.js';
 import { crossCheck, loadRuleBase, type RuleBase } from '../knowledge/load-rules.js';
-import { readValidated } from '../knowledge/read-json.js';
+import { readJson, readValidated } from '../knowledge/read-json.js';
 import { formatIssues, type Issue } from '../knowledge/result.js';
 import { causesFile, checksFile, draftFile, ruleFile } from '../knowledge/rulebase-schema.js';
 import { checkCases, type CaseCheckReport } from '../engine/check-cases.js';
 import { reviewRuleBase, type RuleFinding } from '../engine/check-rules.js';
 import { draftFromCase, withDraft, type DraftFile } from '../engine/draft-rule.js';
 import { fileCase } from './file-case.js';
+import { placeholderTexts } from '../engine/draft-placeholders.js';
 import { diagnose } from '../engine/diagnose.js';
 import { buildEngine } from '../engine/run-rules.js';
-import { jobReport } from '../report/job-report.js';
+import { jobReport, type ProducedBy } from '../report/job-report.js';
+import { clockTime } from '../report/clock-time.js';
+import { JSON_FORMATS } from './json-formats.js';
 import { replaceFile, writeNewFile } from './safe-write.js';
 
 export interface Outcome {
@@ -26,7 +29,8 @@ export interface Outcome {
   err?: string;
 }
 
-const bad = (issues: Issue[]): Outcome => ({ code: 2, err: formatIssues(issues) });
+/** Issues as the shell prints them: one line each, starting with the program's name. */
+const bad = (issues: Issue[]): Outcome => ({ code: 2, err: formatIssues(issues).split('\n').map((l) => `dctriage: ${l}`).join('\n') });
 /** A path as the lead would type it: relative when it is under the working folder. */
 const shown = (file: string) => {
   const r = relative(process.cwd(), file);
@@ -38,22 +42,47 @@ export function caseFiles(dir: string): string[] {
   return readdirSync(dir).filter((f) => f.endsWith('.json')).sort().map((f) => join(dir, f));
 }
 
-export function addCase(file: string, casesDir: string, base: RuleBase, today: string): Outcome {
-  const c = loadCaseFile(file, new Set(base.causes.map((x) => x.id)));
+/** `file` names where the job's JSON came from (a file, or standard input). */
+export function addCase(file: string, json: unknown, casesDir: string, base: RuleBase, today: string): Outcome {
+  const c = caseFromJson(file, json, new Set(base.causes.map((x) => x.id)));
   if (!c.ok) return bad(c.issues);
+  // A valid case is filed whatever these say; they are for the lead to act on.
+  const warnings: string[] = [];
+  const twin = sameJobIn(casesDir, c.value.raw);
+  if (twin) warnings.push(`dctriage: warning: the same job is already filed as ${shown(twin)}`);
+  if (!c.value.job.outcome?.cause && !c.value.job.outcome?.newCause) warnings.push('dctriage: warning: the job names no confirmed cause (outcome.cause or outcome.newCause): cases check and rules draft will skip it');
   const filed = fileCase(c.value.raw, c.value.job, casesDir, today);
   if (!filed.ok) return bad(filed.issues);
   const note = filed.value.requestedId ? ` (id "${filed.value.requestedId}" was taken: filed as "${filed.value.id}")` : '';
-  return { code: 0, out: `Filed ${shown(filed.value.file)}${note}` };
+  return { code: 0, out: `Filed ${shown(filed.value.file)}${note}`, ...(warnings.length ? { err: warnings.join('\n') } : {}) };
+}
+
+/** A case file in `dir` holding the same job (its id and "$schema" aside), if any. */
+function sameJobIn(dir: string, raw: object): string | undefined {
+  const content = (v: unknown) => {
+    const { id: _id, $schema: _schema, ...rest } = v as Record<string, unknown>;
+    return stableJson(rest, caseSchema);
+  };
+  const wanted = content(raw);
+  let files: string[];
+  try {
+    files = caseFiles(dir);
+  } catch {
+    return undefined; // filing will say what is wrong with the folder
+  }
+  return files.find((f) => {
+    const r = readJson(f);
+    return r.ok && r.value !== null && typeof r.value === 'object' && content(r.value) === wanted;
+  });
 }
 
 /** A lead's review of a saved job: its report on stdout, and with `closeBy` the job marked closed. */
-export async function reviewJob(file: string, base: RuleBase, closeBy: string | undefined, now: string, timeZone?: string): Promise<Outcome> {
+export async function reviewJob(file: string, base: RuleBase, closeBy: string | undefined, now: string, timeZone?: string, producedBy?: ProducedBy): Promise<Outcome> {
   const c = loadCaseFile(file, new Set(base.causes.map((x) => x.id)));
   if (!c.ok) return bad(c.issues);
   const { job: parsed, raw } = c.value;
   const d = await diagnose(parsed, base, buildEngine(base));
-  const text = jobReport({ job: parsed, raw, diagnosis: d, safety: base.safety, generatedAt: now, ...(timeZone ? { timeZone } : {}) });
+  const text = jobReport({ job: parsed, raw, diagnosis: d, safety: base.safety, generatedAt: now, ...(timeZone ? { timeZone } : {}), ...(producedBy ? { producedBy } : {}) });
   if (closeBy === undefined) return { code: 0, out: text };
   if (closeBy.trim() === '') return bad([{ code: 'invalid', file, path: 'job.closedBy', message: 'name who closes the job: --close NAME' }]);
   try {
@@ -61,7 +90,7 @@ export async function reviewJob(file: string, base: RuleBase, closeBy: string | 
   } catch (e) {
     return bad([{ code: 'unreadable', file, path: '', message: `could not mark the job closed: ${(e as Error).message}` }]);
   }
-  return { code: 0, out: `${text}\nClosed by ${closeBy} at ${now}; written to ${file}.` };
+  return { code: 0, out: `${text}\nClosed by ${closeBy} at ${clockTime(now, timeZone)}; written to ${file}.` };
 }
 
 export interface RankChange {
@@ -115,7 +144,7 @@ export async function draftRule(caseFile: string, rulesDir: string, casesDir: st
   if (!after.ok) return bad(after.issues);
   const changes = rankChanges(before.value, after.value);
   const dropped = changes.filter((c) => c.droppedOut);
-  if (asJson) return { code: 0, out: json({ file: written, draft: draft.file, conditions: draft.conditions, rankChanges: changes, flagged: dropped.map((c) => c.id) }) };
+  if (asJson) return { code: 0, out: json({ format: JSON_FORMATS.ruleDraft, file: written, draft: draft.file, conditions: draft.conditions, rankChanges: changes, flagged: dropped.map((c) => c.id) }) };
   const moved = changes.filter((c) => c.before !== c.after);
   const lines = [
     `Wrote ${shown(written)}: rule "${draft.name}" for ${draft.cause}, ${draft.conditions} condition${draft.conditions === 1 ? '' : 's'}, weight ${draft.file.rules[0]!.kind === 'evidence' ? draft.file.rules[0]!.weight : ''}.`,
@@ -132,7 +161,8 @@ export interface RuleCheckReport {
   cases?: CaseCheckReport;
 }
 
-export async function checkRules(rulesDir: string, casesDir: string, asJson: boolean): Promise<Outcome> {
+/** `shownPath` turns a file into what output shows (never the install's absolute path). */
+export async function checkRules(rulesDir: string, casesDir: string, asJson: boolean, shownPath: (file: string) => string = (f) => f): Promise<Outcome> {
   const loaded = loadRuleBase(rulesDir);
   let report: RuleCheckReport;
   if (!loaded.ok) {
@@ -147,8 +177,9 @@ export async function checkRules(rulesDir: string, casesDir: string, asJson: boo
     }
     report = { clean: findings.length === 0, findings, cases: cases.value };
   }
+  report = { ...report, findings: report.findings.map((f) => ({ ...f, file: shownPath(f.file) })), ...(report.cases ? { cases: { ...report.cases, cases: report.cases.cases.map((c) => ({ ...c, file: shownPath(c.file) })), skipped: report.cases.skipped.map((x) => ({ ...x, file: shownPath(x.file) })) } } : {}) };
   const err = report.findings.map((f) => `${f.file}: ${f.about ? `${f.about}: ` : ''}${f.message}`).join('\n');
-  const text = asJson ? json(report) : report.clean ? 'Rule folder clean: every check passed and every recorded case ranks in its top 3.' : '';
+  const text = asJson ? json({ format: JSON_FORMATS.ruleCheck, ...report }) : report.clean ? 'Rule folder clean: every check passed and every recorded case ranks in its top 3.' : '';
   return { code: report.clean ? 0 : 1, ...(text ? { out: text } : {}), ...(err ? { err } : {}) };
 }
 
@@ -156,6 +187,13 @@ export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: 
   const d = readValidated(draftPath, draftFile);
   if (!d.ok) return bad(d.issues);
   const draft: DraftFile = d.value;
+  const unwritten = placeholderTexts(draft.causes ?? [], draft.checks ?? []);
+  if (unwritten.length) {
+    return {
+      code: 1,
+      err: [`Not adopted: ${draftPath} still has the draft's placeholder text, which would reach fitters:`, ...unwritten.map((p) => `  ${p.path} (${p.about}): ${JSON.stringify(p.text)}`), 'Write the real words in the draft, then adopt it.'].join('\n'),
+    };
+  }
   const target = join(rulesDir, basename(draftPath));
   const merged = withDraft(base, draft, target);
   const cross = crossCheck(merged);
@@ -165,9 +203,14 @@ export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: 
   const after = await checkCases(files, merged);
   if (!before.ok) return bad(before.issues);
   if (!after.ok) return bad(after.issues);
-  const dropped = rankChanges(before.value, after.value).filter((c) => c.droppedOut);
+  const moved = rankChanges(before.value, after.value).filter((c) => c.before !== c.after);
+  const dropped = moved.filter((c) => c.droppedOut);
   const broke = dropped.map((c) => `  ${c.id} (${c.expected}): rank ${c.before} → ${c.after || 'absent'}`);
-  if (dropped.length && !force) return { code: 1, err: [`Not adopted: ${dropped.length} recorded case(s) would leave the top 3:`, ...broke, 'Review the draft, or adopt with --force.'].join('\n') };
+  // Every case whose confirmed cause moves, up or down, not only those that leave the top 3.
+  const changeLines = moved.length
+    ? ['Rank changes (confirmed cause, before → after):', ...moved.map((c) => `  ${c.droppedOut ? 'OUT ' : '    '}${c.id} (${c.expected}): ${c.before || 'absent'} → ${c.after || 'absent'}`)]
+    : ['No recorded case changes rank.'];
+  if (dropped.length && !force) return { code: 1, err: [`Not adopted: ${dropped.length} recorded case(s) would leave the top 3:`, ...broke, ...changeLines, 'Review the draft, or adopt with --force.'].join('\n') };
   try {
     const { causes, checks, ...rules } = draft;
     writeNewFile(rulesDir, basename(draftPath, '.json'), '.json', stableJson(rules, ruleFile));
@@ -177,7 +220,7 @@ export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: 
   } catch (e) {
     return bad([{ code: 'unreadable', file: rulesDir, path: '', message: `could not adopt the draft: ${(e as Error).message}` }]);
   }
-  const lines = [`Adopted ${basename(draftPath)} into ${rulesDir}.`];
+  const lines = [`Adopted ${basename(draftPath)} into ${rulesDir}.`, ...changeLines];
   if (dropped.length) lines.push(`Adopted with --force; these recorded cases left their top 3:`, ...broke);
   return { code: 0, out: lines.join('\n') };
 }

@@ -16,6 +16,7 @@ import type { Answer } from '../dialogue/job.js';
 import type { Diagnosis } from '../engine/diagnose.js';
 import { formatDiagnosis, warningLine } from '../shell/format-diagnosis.js';
 import { formatLoopUpdate, formatNext } from '../shell/format-loop.js';
+import { wrapText } from '../shell/wrap.js';
 import { whyAsked } from '../dialogue/why.js';
 import { useLineInput } from './use-line-input.js';
 
@@ -119,7 +120,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
 
   return (
     <Box flexDirection="column">
-      <Static items={transcript}>{(l) => <Text key={l.key} {...tone(l.tone)}>{l.text}</Text>}</Static>
+      <Static items={transcript}>{(l) => <Text key={l.key} {...tone(l.tone)}>{wrapText(l.text, width)}</Text>}</Static>
       {state.phase === 'notice' && <Text>Press Enter to begin.</Text>}
       {state.phase === 'asking' && leaders.length > 0 && (
         <Text>Leading: {leaders.map((c, k) => `${k + 1} ${c.title} ${c.score.toFixed(2)}`).join(' · ')}</Text>

@@ -1,6 +1,6 @@
 import { stripVTControlCharacters } from 'node:util';
 import { describe, expect, it } from 'vitest';
-import { FIELD_SAMPLE, HEALTHY_SAMPLE, MEASURED_MARKER, renderSpeedChart, speedChartLayout, summarizeSpeedChart } from '../../src/chart/text-chart.js';
+import { FIELD_GLYPH, FIELD_SAMPLE, HEALTHY_SAMPLE, MEASURED_MARKER, renderSpeedChart, speedChartLayout, summarizeSpeedChart } from '../../src/chart/text-chart.js';
 import type { SpeedCurves } from '../../src/model/curve.js';
 import { interpolate, seriesCurves, shuntCurves } from './machines.js';
 
@@ -88,7 +88,7 @@ describe('renderSpeedChart', () => {
     expect(healthyBelow).toBe(true);
   });
 
-  it('draws the measured-field curve with every other dot, so it reads apart from the healthy one without colour', () => {
+  it('draws the measured-field curve in its own glyph, so it reads apart from the healthy one without colour', () => {
     const flat = (speed: number) => [0, 5, 10, 15, 20].map((current) => ({ current, speed }));
     const curves: SpeedCurves = { voltage: 200, ratedCurrent: 10, healthy: flat(1000), withMeasuredField: flat(2000) };
     const layout = speedChartLayout(curves);
@@ -102,7 +102,9 @@ describe('renderSpeedChart', () => {
     expect(solid).toHaveLength(layout.columns);
     expect(dotted).toHaveLength(layout.columns);
     expect(solid.every((ch) => dotsIn(ch) === 2)).toBe(true);
-    expect(dotted.every((ch) => dotsIn(ch) === 1)).toBe(true);
+    expect(dotted.every((ch) => ch === FIELD_GLYPH)).toBe(true);
+    // Without colour codes, as NO_COLOR draws it.
+    expect(lines.join('\n')).not.toContain('\u001b[');
   });
 
   it('names each series in the legend with its own glyph', () => {

@@ -11,7 +11,8 @@ describe('dctriage diagnose', () => {
     const r = runCli(['diagnose', demo, '--json']);
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
-    expect(Object.keys(j)).toEqual(['status', 'confirmed', 'next', 'warnings', 'causes', 'checks', 'withheld', 'isolation', 'quantities']);
+    expect(Object.keys(j)).toEqual(['format', 'status', 'confirmed', 'next', 'warnings', 'causes', 'checks', 'withheld', 'isolation', 'quantities']);
+    expect(j.format).toBe('dctriage-diagnosis/1');
     expect(j.causes[0]).toMatchObject({ id: 'field-weak', title: 'Field weak' });
     expect(j.causes[0].evidence).toContainEqual({ rule: expect.any(String), says: expect.stringContaining('field current') });
     for (const c of j.checks) expect(['observe', 'live-test', 'isolated']).toContain(c.state);

@@ -26,6 +26,8 @@ describe.each([
     const state = mkdtempSync(join(tmpdir(), 'dctriage-state-'));
     const first = drive(state, signal, opening);
     expect(first.code).toBe(code);
+    // It says where the session is and how to carry on.
+    expect(first.screen.replace(/\s+/g, ' ')).toContain(`The session is kept in ${join(state, 'dctriage', 'session.json')}; to carry on where you were, run: dctriage resume`);
     const session = JSON.parse(readFileSync(join(state, 'dctriage', 'session.json'), 'utf8'));
     expect(session.answers.map((a: { shown: string }) => a.shown)).toEqual(['running', 'no fault shown', 'shunt', 'fixed DC supply with starter or contactor', 'shaft fan', '220 V']);
     const again = drive(state, 'INT', [], ['resume']);

@@ -112,3 +112,27 @@ describe('the launcher', () => {
     }
   });
 });
+
+describe('a code cache V8 refuses', () => {
+  const someCase = join(ROOT, 'cases', '2026-10-14-press-feed-field-weak.json');
+
+  it('is written afresh by the first run, so the next run uses it (as after a Node upgrade)', () => {
+    const install = installCopy();
+    const cacheFile = join(install, 'dist', 'core.cjs.cache');
+    const good = readFileSync(cacheFile);
+    // The same length, the right digest, other compiled data: as a cache from another V8 would be.
+    const foreign = Buffer.concat([good.subarray(0, 32), Buffer.alloc(good.length - 32, 7)]);
+    writeFileSync(cacheFile, foreign);
+    const used = () =>
+      JSON.parse(
+        inFreshNode(`const { runBundle } = await import(${LOADER});
+          const b = runBundle(${JSON.stringify(join(install, 'dist', 'core.cjs'))}, ${JSON.stringify(cacheFile)});
+          console.log(JSON.stringify({ cacheUsed: b.cacheUsed, runCli: typeof b.exports.runCli }));`),
+      );
+    expect(used()).toEqual({ cacheUsed: false, runCli: 'function' });
+    const first = spawnSync(process.execPath, [join(install, 'dist', 'cli.mjs'), 'diagnose', someCase, '--json'], { encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+    expect(first.status, first.stderr).toBe(0);
+    expect(readFileSync(cacheFile).equals(foreign)).toBe(false);
+    expect(used()).toEqual({ cacheUsed: true, runCli: 'function' });
+  });
+});

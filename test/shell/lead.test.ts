@@ -1,5 +1,5 @@
 import { spawn } from 'node:child_process';
-import { cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -30,7 +30,7 @@ describe('dctriage cases add', () => {
     runCli(['cases', 'add', demo, '--cases', dir, '--rules', rules]);
     const r = runCli(['cases', 'add', demo, '--cases', dir, '--rules', rules]);
     expect(r.code).toBe(0);
-    expect(r.stdout).toContain('filed as "press-feed-field-weak-2"');
+    expect(r.stdout.replace(/\s+/g, ' ')).toContain('filed as "press-feed-field-weak-2"');
     expect(jsonFiles(dir)).toEqual(['2026-10-14-press-feed-field-weak-2.json', '2026-10-14-press-feed-field-weak.json']);
     expect(JSON.parse(readFileSync(join(dir, '2026-10-14-press-feed-field-weak-2.json'), 'utf8')).id).toBe('press-feed-field-weak-2');
   });
@@ -206,5 +206,116 @@ describe('dctriage review', () => {
     const job = JSON.parse(readFileSync(file, 'utf8')).job;
     expect(job.closedBy).toBe('R. Lead');
     expect(runCli(['review', file, '--rules', join(CASES_DIR, '..', 'rules')]).stdout).toContain('| Closed by | R. Lead at ');
+  });
+});
+
+describe('placeholder text never reaches fitters', () => {
+  const knowledge = () => {
+    const k = mkdtempSync(join(tmpdir(), 'dctriage-knowledge-'));
+    cpSync(join(CASES_DIR, '..', 'rules'), join(k, 'rules'), { recursive: true });
+    cpSync(CASES_DIR, join(k, 'cases'), { recursive: true });
+    return k;
+  };
+
+  it('rules adopt refuses a draft whose new cause and check still have the placeholders, even with --force', () => {
+    const k = knowledge();
+    const env = { DCTRIAGE_KNOWLEDGE: k };
+    const job = raw();
+    job.id = 'press-feed-rheostat-track';
+    job.outcome = { newCause: { id: 'rheostat-track-worn', title: 'Rheostat track worn through' }, date: '2026-10-14' };
+    const file = join(k, 'new-cause.json');
+    writeFileSync(file, JSON.stringify(job));
+    const drafted = runCli(['rules', 'draft', '--from-case', file, '--json'], { env, cwd: k });
+    expect(drafted.code, drafted.stderr).toBe(0);
+    const draftFile = JSON.parse(drafted.stdout).file as string;
+    for (const force of [[], ['--force']]) {
+      const r = runCli(['rules', 'adopt', draftFile, ...force], { env, cwd: k });
+      expect(r.code).toBe(1);
+      expect(r.stderr).toContain("still has the draft's placeholder text");
+      expect(r.stderr).toContain('checks[0].how (confirm-rheostat-track-worn): "Describe how to confirm or clear this cause."');
+      expect(r.stderr).toContain('checks[0].instrument');
+      expect(r.stderr).toContain('causes[0].description');
+    }
+    expect(existsSync(draftFile)).toBe(true);
+    // Written properly, it is adopted.
+    const draft = JSON.parse(readFileSync(draftFile, 'utf8'));
+    draft.causes[0].description = 'The rheostat contact track is worn through where it usually sits, adding resistance to the field.';
+    draft.checks[0].how = 'With the machine isolated, measure the rheostat across its wiper and each end while turning it slowly; a jump marks the worn place.';
+    draft.checks[0].instrument = 'multimeter on resistance';
+    writeFileSync(draftFile, JSON.stringify(draft));
+    const ok = runCli(['rules', 'adopt', draftFile], { env, cwd: k });
+    expect(ok.code, ok.stderr).toBe(0);
+  });
+
+  it('rules check reports placeholder text in the rule folder', () => {
+    const dir = copyOfRules();
+    const f = join(dir, 'checks.json');
+    const checks = JSON.parse(readFileSync(f, 'utf8'));
+    checks.checks[0].how = 'Describe how to confirm or clear this cause.';
+    writeFileSync(f, JSON.stringify(checks));
+    const r = runCli(['rules', 'check', '--rules', dir, '--cases', CASES_DIR, '--json']);
+    expect(r.code).toBe(1);
+    expect(JSON.parse(r.stdout).findings).toContainEqual(expect.objectContaining({ kind: 'placeholder-text', about: `checks[0].how (${checks.checks[0].id})` }));
+  });
+});
+
+describe('rules adopt shows every case whose rank changes', () => {
+  it('lists each recorded case that moves, not only those that leave the top 3', () => {
+    const k = mkdtempSync(join(tmpdir(), 'dctriage-knowledge-'));
+    cpSync(join(CASES_DIR, '..', 'rules'), join(k, 'rules'), { recursive: true });
+    cpSync(CASES_DIR, join(k, 'cases'), { recursive: true });
+    const env = { DCTRIAGE_KNOWLEDGE: k };
+    // A rule for one cause on a common symptom: it moves several cases, some only a place or two.
+    mkdirSync(join(k, 'rules', 'drafts'), { recursive: true });
+    const draft = join(k, 'rules', 'drafts', 'weak-overspeed.json');
+    writeFileSync(draft, JSON.stringify({ family: 'drafts', description: 'test', rules: [{ name: 'weak-overspeed-series', kind: 'evidence', cause: 'field-shorted-turns', weight: 0.9, conditions: { all: [{ fact: 'symptoms', operator: 'contains', value: 'overspeed' }] }, says: 'runs fast' }] }));
+    const ranks = () => new Map((JSON.parse(runCli(['cases', 'check', '--json'], { env, cwd: k }).stdout).cases as { id: string; rank: number }[]).map((c) => [c.id, c.rank]));
+    const before = ranks();
+    const r = runCli(['rules', 'adopt', draft, '--force'], { env, cwd: k });
+    expect(r.code, r.stderr).toBe(0);
+    const after = ranks();
+    const moved = [...after].filter(([id, rank]) => before.get(id) !== rank).map(([id]) => id);
+    expect(moved.length).toBeGreaterThan(0);
+    const listed = [...r.stdout.matchAll(/^ {2}(?:OUT | {4})(\S+) \(/gm)].map((m) => m[1]);
+    expect(listed.sort()).toEqual(moved.sort());
+  });
+});
+
+describe('cases add warns, and still files', () => {
+  it('about the same job already filed, and about a job with no cause', () => {
+    const dir = emptyDir();
+    const rules = copyOfRules();
+    const first = runCli(['cases', 'add', demo, '--cases', dir, '--rules', rules]);
+    expect(first.stderr).toBe('');
+    const again = runCli(['cases', 'add', demo, '--cases', dir, '--rules', rules]);
+    expect(again.code).toBe(0);
+    expect(again.stderr).toContain(`dctriage: warning: the same job is already filed as ${join(dir, '2026-10-14-press-feed-field-weak.json')}`);
+    const noCause = { ...raw(), id: 'no-cause-yet', outcome: { date: '2026-10-15', notes: 'left running' } };
+    const file = join(emptyDir(), 'job.json');
+    writeFileSync(file, JSON.stringify(noCause));
+    const r = runCli(['cases', 'add', file, '--cases', dir, '--rules', rules]);
+    expect(r.code).toBe(0);
+    expect(r.stderr).toContain('warning: the job names no confirmed cause');
+    expect(r.stderr).not.toContain('already filed');
+    expect(jsonFiles(dir)).toHaveLength(3);
+  });
+});
+
+describe('cases check says what it skipped', () => {
+  it('counts the files without a cause and those with a new cause, and names them', () => {
+    const dir = emptyDir();
+    cpSync(demo, join(dir, 'a.json'));
+    writeFileSync(join(dir, 'b.json'), JSON.stringify({ ...raw(), id: 'b', outcome: { date: '2026-10-15' } }));
+    writeFileSync(join(dir, 'c.json'), JSON.stringify({ ...raw(), id: 'c', outcome: { newCause: { id: 'rheostat-track-worn', title: 'Rheostat track worn' } } }));
+    const text = runCli(['cases', 'check', dir], { env: { COLUMNS: '300' } });
+    expect(text.stdout).toContain('1 cases: 1 ranked first');
+    expect(text.stdout).toContain('Skipped 2 files:');
+    expect(text.stdout).toMatch(/1 with no confirmed cause recorded: \S*b\.json/);
+    expect(text.stdout).toMatch(/1 with a new cause not yet adopted into the catalogue: \S*c\.json/);
+    const j = JSON.parse(runCli(['cases', 'check', dir, '--json']).stdout);
+    expect(j.skipped).toEqual([
+      { file: expect.stringMatching(/b\.json$/), why: 'no-outcome' },
+      { file: expect.stringMatching(/c\.json$/), why: 'new-cause' },
+    ]);
   });
 });

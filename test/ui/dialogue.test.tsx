@@ -184,3 +184,50 @@ describe('the dialogue', () => {
     again.unmount();
   });
 });
+
+describe('done before anything is known', () => {
+  it.each([
+    ['as the very first input', [] as string[]],
+    ['after the first answer', ['', 'running']],
+  ])('answers at once %s: nothing to go on yet, and the question stays', async (_when, before) => {
+    const d = renderDialogue();
+    for (const line of before) await d.type(line);
+    await d.type('done');
+    expect(d.lastFrame()).not.toContain('Working out the result');
+    expect(d.screen()).toContain('Nothing to go on yet');
+    expect(d.lastFrame()).toMatch(/^\? /m);
+    d.unmount();
+  });
+});
+
+describe('why', () => {
+  it('says in plain words how well the question tells the causes apart, without bits', async () => {
+    const d = renderDialogue();
+    await openJob(d);
+    await d.type('why');
+    const screen = d.screen();
+    expect(screen).toMatch(/Asked because the answer tells (the leading causes well apart|some of the leading causes apart|the leading causes apart only a little):/);
+    expect(screen).not.toMatch(/\bbits?\b/);
+    expect(screen).not.toMatch(/\(\d+ %\)/);
+    d.unmount();
+  });
+});
+
+describe('the result on screen', () => {
+  it('wraps long lines at the width with a hanging indent, shows each reading once and no unmeasured rows', async () => {
+    const d = renderDialogue();
+    await openJob(d);
+    for (const a of ['done']) await d.type(a);
+    const screen = d.screen();
+    expect(screen).toContain('Likely causes:');
+    // ink-testing-library draws 100 columns.
+    for (const line of screen.split('\n')) expect([...line].length, line).toBeLessThanOrEqual(100);
+    const lines = screen.split('\n');
+    const continued = lines.findIndex((l, k) => /^ {2}- /.test(l) && /^ {4}\S/.test(lines[k + 1] ?? ''));
+    expect(continued, 'a list item continued under its text').toBeGreaterThanOrEqual(0);
+    const table = screen.slice(screen.lastIndexOf('Readings against a healthy machine:'));
+    expect(table).not.toContain('machine constant');
+    expect(table).not.toContain('rated back-EMF');
+    d.unmount();
+  });
+});

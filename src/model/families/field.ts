@@ -24,10 +24,11 @@ export function healthyField(ctx: ModelContext): void {
   if (ratedVf !== undefined) {
     addQuantity(ctx, 'ratedFieldVoltage', { value: ratedVf, unit: 'V', measured: measuredVf, formula: np.fieldVoltage !== undefined ? 'nameplate' : 'terminal voltage (field across the armature)' });
   }
-  if (d.ratedFieldCurrent !== undefined) {
-    addQuantity(ctx, 'ratedFieldCurrent', { value: d.ratedFieldCurrent, unit: 'A', measured: readings.fieldCurrent, formula: np.fieldCurrent !== undefined ? 'nameplate' : 'If = Vf/Rf at working temperature' });
-  }
-  if (!needs(ctx, 'fieldCurrent', { 'machine.nameplate.fieldCurrent or machine.resistances.shuntField': d.ratedFieldCurrent })) return;
+  // The healthy field first, its rating after: a readings table shows the reading once, against the healthy value.
+  const addRating = () => {
+    if (d.ratedFieldCurrent !== undefined) addQuantity(ctx, 'ratedFieldCurrent', { value: d.ratedFieldCurrent, unit: 'A', measured: readings.fieldCurrent, formula: np.fieldCurrent !== undefined ? 'nameplate' : 'If = Vf/Rf at working temperature' });
+  };
+  if (!needs(ctx, 'fieldCurrent', { 'machine.nameplate.fieldCurrent or machine.resistances.shuntField': d.ratedFieldCurrent })) return addRating();
   const rated = d.ratedFieldCurrent!;
 
   let reference = rated;
@@ -59,6 +60,7 @@ export function healthyField(ctx: ModelContext): void {
   }
   d.expectedField = reference;
   addQuantity(ctx, 'fieldCurrent', { value: reference, unit: 'A', measured: readings.fieldCurrent, formula });
+  addRating();
 
   // The field winding itself, whatever its supply: the current its measured voltage should drive.
   const rWarm = warmResistance(ctx, res.shuntField);

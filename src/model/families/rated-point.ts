@@ -72,7 +72,7 @@ export function ratedPoint(ctx: ModelContext): void {
     const efficiency = np.power / input;
     // A motor converts 50–97 % of its input; outside that one of the three plate values is wrong.
     if (efficiency < 0.5 || efficiency > 0.97) {
-      find(ctx, 'nameplate-power-implausible', `nameplate output ${fmt(np.power, 'W')} is ${Math.round(efficiency * 100)} % of the ${fmt(input, 'W')} input that voltage and current mean: ${efficiency > 1 ? 'an output above the input cannot be — check the power, voltage and current as read from the plate (a power given in hp, or a current from another rating?)' : 'check the plate (kW typed as W, or a current from another rating?)'}`);
+      find(ctx, 'nameplate-power-implausible', `nameplate output ${fmt(np.power, 'W')} is ${Math.round(efficiency * 100)} % of the ${fmt(input, 'W')} input that voltage and current mean: ${nameplateHint(efficiency)}`);
     } else {
       d.circuitR = (0.5 * (input - np.power)) / (ratedIa * ratedIa);
       d.circuitEstimated = true;
@@ -181,4 +181,13 @@ function solveSeriesShare(curve: MachineData['magnetization'], sense: 1 | -1 | 0
     else lo = mid;
   }
   return (lo + hi) / 2;
+}
+
+/** The likeliest slip behind a plate whose output and input disagree: kW typed as W only where that fits. */
+export function nameplateHint(efficiency: number): string {
+  const asKilowatts = efficiency * 1000;
+  if (asKilowatts >= 0.5 && asKilowatts <= 0.97) return 'check the plate (the power looks like kW typed as W)';
+  if (efficiency > 1) return "the output cannot exceed the input: check the power (hp written as kW, or a decimal slip) and that the voltage and current are the armature's rated ones";
+  if (efficiency > 0.97) return "no motor is that efficient: check the power, and that the voltage and current are the armature's rated ones";
+  return 'check the power, the voltage and the current against the plate';
 }
