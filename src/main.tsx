@@ -14,6 +14,7 @@ import { caseSchema, machineSchema } from './knowledge/case-schema.js';
 import { safetyFile } from './knowledge/rulebase-schema.js';
 import { diagnose } from './engine/diagnose.js';
 import { buildEngine, RuleCycleError } from './engine/run-rules.js';
+import { analyseTests } from './engine/series-analyses.js';
 import { checkCases, type CaseRunner } from './engine/check-cases.js';
 import { buildFlow, type Flow } from './dialogue/flow.js';
 import { replayCase } from './dialogue/replay.js';
@@ -101,7 +102,7 @@ async function main(argv: string[]): Promise<number> {
       if (!loaded.ok) return fail(loaded.issues);
       const { job } = loaded.value;
       const e = computeExpectations(modelInput(job));
-      if (opts.json) out(JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2));
+      if (opts.json) out(JSON.stringify({ quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings, analyses: analyseTests(job) }, null, 2));
       else {
         const chart = opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor());
         out(formatExpectation(e, terminalWidth()) + (chart ? `\n\n${chart}` : ''));
@@ -123,6 +124,7 @@ async function main(argv: string[]): Promise<number> {
           checks: d.checks.map(({ id, title, state, causes, minutes }) => ({ id, title, state, causes, minutes })),
           isolation: d.isolation,
           quantities: d.expectation.quantities,
+          analyses: d.analyses,
         }, null, 2));
       } else {
         if (replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);

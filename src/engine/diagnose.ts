@@ -13,6 +13,7 @@ import { jobFacts, type Facts } from './facts.js';
 import { orderChecks } from './order-checks.js';
 import { runToFixpoint } from './run-rules.js';
 import { compareIds } from './compare-ids.js';
+import { analyseTests, type Analyses } from './series-analyses.js';
 
 export interface Evidence {
   rule: string;
@@ -45,6 +46,8 @@ export interface Diagnosis {
   checks: CheckResult[];
   isolation: { beforeCheck: string | null; steps: string[] };
   expectation: Expectation;
+  /** What the test series show (bar-to-bar, pole drop, runout, insulation curve). */
+  analyses: Analyses;
   facts: Facts;
   /** Questions whose askWhen condition holds for this job. */
   askable: Set<string>;
@@ -55,11 +58,12 @@ export interface Diagnosis {
 /** How many of the leading causes contribute checks. */
 const CAUSES_WITH_CHECKS = 4;
 
-export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'readings'>;
+export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'readings' | 'tests'>;
 
 export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngines): Promise<Diagnosis> {
   const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
-  const { facts, fired, askable, askFirst } = await runToFixpoint(engine, base, jobFacts(job, expectation));
+  const analyses = analyseTests(job);
+  const { facts, fired, askable, askFirst } = await runToFixpoint(engine, base, jobFacts(job, expectation, analyses));
   // A derived fact is explained by what the rule that derived it saw, recursively.
   const derivedBy = new Map(fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])));
   const words = new Map<string, string>();
@@ -135,6 +139,7 @@ export async function diagnose(job: JobInput, base: RuleBase, engine: RuleEngine
       steps: firstIsolated ? isolationSteps(iso, job.machine.drive ?? 'unknown') : [],
     },
     expectation,
+    analyses,
     facts,
     askable,
     askFirst,

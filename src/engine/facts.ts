@@ -6,10 +6,11 @@
 import type { CaseFile } from '../knowledge/case-schema.js';
 import { CONNECTION_TRAITS } from '../model/machine.js';
 import type { Expectation } from '../model/expected.js';
+import { analyseTests, seriesFacts, type Analyses } from './series-analyses.js';
 
 export type Facts = Record<string, unknown>;
 
-export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations'>, e: Expectation): Facts {
+export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'tests'>, e: Expectation, analyses: Analyses = analyseTests(c)): Facts {
   const traits = CONNECTION_TRAITS[c.machine.connection];
   const facts: Facts = {
     connection: c.machine.connection,
@@ -23,6 +24,8 @@ export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observation
     value: {},
     measured: {},
     ratio: {},
+    // Test series: finding codes for the rules, sentences for their `says` ({tests:barToBar}).
+    ...seriesFacts(analyses),
   };
   for (const [name, q] of Object.entries(e.quantities)) {
     (facts.value as Record<string, number>)[name] = q.value;

@@ -6,6 +6,7 @@
 import * as z from 'zod';
 import { CONNECTIONS, INSULATION_CLASSES, TESTED_WINDINGS } from '../model/machine.js';
 import { describeQuantityError, DIMENSIONS, parseQuantity, type Dimension } from '../units/quantity.js';
+import { testsSchema } from './tests-schema.js';
 import { COOLING, DRIVES, FEEDBACK, OBSERVATIONS, OBSERVATION_NAMES, SYMPTOM_IDS, SYMPTOMS, observationValues } from './vocabulary.js';
 
 export const SAFE_ID = /^[A-Za-z0-9][A-Za-z0-9._-]{0,79}$/;
@@ -151,6 +152,7 @@ export const caseSchema = z
       .meta({ description: `zero or more of: ${Object.entries(SYMPTOMS).map(([k, v]) => `${k} (${v})`).join(', ')}` }),
     observations: observationsSchema.optional(),
     readings: readingsSchema.optional(),
+    tests: testsSchema.optional(),
     outcome: outcome.optional(),
   })
   .meta({ id: 'dc-case-1', title: 'DC machine job (dc-case/1)' });
