@@ -30,6 +30,9 @@ import { chartText } from './shell/chart-text.js';
 import { readSettings, resolveKnowledge } from './shell/settings.js';
 import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
+import { formatSeries } from './shell/format-series.js';
+import { formatHistory, historyOf, readRecordedJobs } from './shell/history.js';
+import { assetHistory, earlierJobsNote, type RecordedJob } from './engine/asset-history.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
 import { USAGE } from './shell/help.js';
 import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
@@ -106,6 +109,8 @@ async function main(argv: string[]): Promise<number> {
       else {
         const chart = opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor());
         out(formatExpectation(e, terminalWidth()) + (chart ? `\n\n${chart}` : ''));
+        const series = formatSeries(job.tests, analyseTests(job), Math.max(20, terminalWidth() - 10));
+        if (series) out(`\n${series}`);
       }
       return 0;
     }
@@ -129,6 +134,8 @@ async function main(argv: string[]): Promise<number> {
       } else {
         if (replay) out(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
         out(formatDiagnosis(d, { width: terminalWidth(), chart: opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor()) }));
+        const series = formatSeries(job.tests, d.analyses, Math.max(20, terminalWidth() - 10));
+        if (series) out(`\nTest series\n\n${series}`);
       }
       if (opts.report !== undefined) {
         try {
@@ -175,6 +182,18 @@ async function main(argv: string[]): Promise<number> {
       const base = loadRules(k.value.rules);
       if (!base.ok) return fail(base.issues);
       return print(await reviewJob(rest[0], base.value, opts.close, new Date().toISOString(), localTimeZone()));
+    }
+    case 'history': {
+      if (!rest[0]) throw new UsageError('history needs an asset: dctriage history ASSET [--cases DIR] [--json]');
+      const k = knowledge(opts, true);
+      if (!k.ok) return fail(k.issues);
+      const base = loadRules(k.value.rules);
+      if (!base.ok) return fail(base.issues);
+      const h = historyOf(rest[0], k.value.cases, new Map(base.value.causes.map((c) => [c.id, c.title])));
+      if (!h.ok) return fail(h.issues);
+      if (h.value.jobs.length === 0) return print({ code: 1, err: `no recorded jobs for asset "${rest[0]}" in ${k.value.cases}` });
+      out(opts.json ? JSON.stringify(h.value, null, 2) : formatHistory(h.value));
+      return 0;
     }
     case undefined:
     case 'resume':
@@ -279,7 +298,7 @@ async function dialogue(
     return {
       ok: true,
       props: {
-        ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true } },
+        ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true }, earlierJobs: earlierJobsFor(opts, base.value) },
         engine: buildEngine(base.value),
         safetyNotice: base.value.safety.notice,
         initialAnswers,
@@ -343,6 +362,20 @@ function recordJob(draft: Record<string, unknown>, base: RuleBase, opts: { rules
   return filed.ok ? `Recorded the job as ${filed.value.file}` : `Not recorded: ${formatIssues(filed.issues)}. The session is kept; type save to keep the job here instead.`;
 }
 
+
+/** The dialogue's line on an asset's earlier jobs, from the cases folder in use, read when first asked; nothing if it cannot be read. */
+function earlierJobsFor(opts: { rules?: string | undefined; cases?: string | undefined }, base: RuleBase): (asset: string) => string | undefined {
+  let jobs: RecordedJob[] | undefined;
+  const titles = new Map(base.causes.map((c) => [c.id, c.title]));
+  return (asset) => {
+    if (!jobs) {
+      const k = knowledge(opts, true);
+      const read = k.ok ? readRecordedJobs(k.value.cases) : k;
+      jobs = read.ok ? read.value : [];
+    }
+    return earlierJobsNote(assetHistory(asset, jobs, titles), today());
+  };
+}
 
 function causeIdsOf(base: RuleBase): Set<string> {
   return new Set(base.causes.map((c) => c.id));

@@ -60,6 +60,8 @@ export interface DialogueContext {
   machineFile?: unknown;
   /** Who is working and what the site allows; a fitter with no limits when absent. */
   work?: WorkRules;
+  /** A line on the asset's earlier recorded jobs, when it has any (the shell reads the cases folder once). */
+  earlierJobs?: ((asset: string) => string | undefined) | undefined;
 }
 
 /** Words typed at any prompt that steer the dialogue rather than answer. */
@@ -157,7 +159,10 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   const parsed = parseAnswer(step.question, text);
   if (!parsed.ok) return { ...base, error: parsed.reason };
   const answer: Answer = { questionId: step.question.id, target: step.question.target, value: parsed.value, shown: parsed.shown, at };
-  return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }] }, [...state.answers, answer]);
+  const target = step.question.target;
+  const history = target.section === 'job' && target.name === 'asset' && typeof parsed.value === 'string' ? ctx.earlierJobs?.(parsed.value) : undefined;
+  const notes: LogEntry[] = history ? [{ kind: 'note', text: history }] : [];
+  return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }, ...notes] }, [...state.answers, answer]);
 }
 
 const DEFAULT_WORK_RULES: WorkRules = { role: 'fitter', apprenticesMayTestLive: true };

@@ -11,7 +11,7 @@ describe('dctriage diagnose', () => {
     const r = runCli(['diagnose', demo, '--json']);
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
-    expect(Object.keys(j)).toEqual(['warnings', 'causes', 'checks', 'isolation', 'quantities']);
+    expect(Object.keys(j)).toEqual(['warnings', 'causes', 'checks', 'isolation', 'quantities', 'analyses']);
     expect(j.causes[0]).toMatchObject({ id: 'field-weak', title: 'Field weak' });
     expect(j.causes[0].evidence[0]).toEqual({ rule: expect.any(String), says: expect.stringContaining('field current') });
     for (const c of j.checks) expect(['observe', 'live-test', 'isolated']).toContain(c.state);
