@@ -30,8 +30,9 @@ import { chartText } from './shell/chart-text.js';
 import { readSettings, resolveKnowledge } from './shell/settings.js';
 import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
-import { formatSeries } from './shell/format-series.js';
-import { formatHistory, historyOf, readRecordedJobs } from './shell/history.js';
+import { formatSeries } from './report/series-text.js';
+import { historyOf, readRecordedJobs } from './shell/history.js';
+import { formatHistory } from './report/history-text.js';
 import { assetHistory, earlierJobsNote, type RecordedJob } from './engine/asset-history.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
 import { USAGE } from './shell/help.js';
@@ -139,7 +140,7 @@ async function main(argv: string[]): Promise<number> {
       }
       if (opts.report !== undefined) {
         try {
-          const where = await writeReport(opts.report, { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd());
+          const where = await writeReport(opts.report, { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString(), timeZone: localTimeZone(), history: historyForReport(job.job?.asset, opts, base) }, process.cwd());
           process.stderr.write(`Job report written to ${where}\n`);
         } catch (e) {
           return fail([{ code: 'unreadable', file: opts.report, path: '', message: `could not write the report: ${(e as Error).message}` }]);
@@ -362,6 +363,14 @@ function recordJob(draft: Record<string, unknown>, base: RuleBase, opts: { rules
   return filed.ok ? `Recorded the job as ${filed.value.file}` : `Not recorded: ${formatIssues(filed.issues)}. The session is kept; type save to keep the job here instead.`;
 }
 
+
+/** The asset's recorded jobs for a report; none when it has no name or the folder cannot be read. */
+function historyForReport(asset: string | undefined, opts: { rules?: string | undefined; cases?: string | undefined }, base: RuleBase) {
+  const k = knowledge(opts, true);
+  if (!asset || !k.ok) return undefined;
+  const h = historyOf(asset, k.value.cases, new Map(base.causes.map((c) => [c.id, c.title])));
+  return h.ok ? h.value : undefined;
+}
 
 /** The dialogue's line on an asset's earlier jobs, from the cases folder in use, read when first asked; nothing if it cannot be read. */
 function earlierJobsFor(opts: { rules?: string | undefined; cases?: string | undefined }, base: RuleBase): (asset: string) => string | undefined {

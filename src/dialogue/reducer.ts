@@ -160,7 +160,7 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   if (!parsed.ok) return { ...base, error: parsed.reason };
   const answer: Answer = { questionId: step.question.id, target: step.question.target, value: parsed.value, shown: parsed.shown, at };
   const target = step.question.target;
-  const history = target.section === 'job' && target.name === 'asset' && typeof parsed.value === 'string' ? ctx.earlierJobs?.(parsed.value) : undefined;
+  const history = target.section === 'job' && target.name === 'asset' && parsed.value.kind === 'text' ? ctx.earlierJobs?.(parsed.value.value) : undefined;
   const notes: LogEntry[] = history ? [{ kind: 'note', text: history }] : [];
   return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }, ...notes] }, [...state.answers, answer]);
 }

@@ -154,7 +154,7 @@ export function earlierJobsNote(h: AssetHistory, today: string): string | undefi
   const parts = [`${h.asset}: ${nth} job this year, ${h.jobs.length} earlier on record`];
   const last = dated[dated.length - 1] ?? h.jobs[h.jobs.length - 1]!;
   const when = last.date ? `${last.date} (${MONTHS[Number(last.date.slice(5, 7)) - 1]})` : 'undated';
-  parts.push(`last on ${when}: ${last.causeTitle ?? last.cause ?? 'cause not recorded'}${last.fix ? ` — ${last.fix}` : ''}`);
+  parts.push(`last on ${when}: ${last.causeTitle ?? last.cause ?? 'cause not recorded'}${last.fix ? ` — ${last.fix.replace(/\.$/, '')}` : ''}`);
   const ins = h.trends.insulation;
   if (ins.perYear !== null && ins.perYear < 0) parts.push(`insulation falling ${Math.round(-ins.perYear)} MΩ a year${ins.projectedMinimumDate ? `, at its minimum about ${ins.projectedMinimumDate} on that trend` : ''}`);
   return `${parts.join('; ')}.`;

@@ -10,6 +10,9 @@ import { outOfBand, QUANTITY_LABELS, type QuantityName } from '../model/quantity
 import { OBSERVATIONS, SYMPTOMS, type ObservationName } from '../knowledge/vocabulary.js';
 import type { Role, WorkEntry } from '../dialogue/work.js';
 import { clockTime } from './clock-time.js';
+import type { AssetHistory } from '../engine/asset-history.js';
+import { formatSeries } from './series-text.js';
+import { formatHistory } from './history-text.js';
 
 export interface ReportInput {
   job: CaseFile;
@@ -24,6 +27,8 @@ export interface ReportInput {
   timeZone?: string;
   /** Where an SVG of the characteristic sits beside the report, when there is one. */
   chartFile?: string;
+  /** The asset's recorded jobs, when it has any. */
+  history?: AssetHistory | undefined;
 }
 
 const UNIT: Record<string, string> = { degC: '°C', ohm: 'Ω', Mohm: 'MΩ', '1': '', 'N m': 'N·m' };
@@ -142,6 +147,7 @@ export function jobReport(r: ReportInput): string {
   if (d.isolation.beforeCheck) lines.push(`- The isolation steps above (${iso.source}). ${iso.usEquivalent}`);
   lines.push('');
 
+  lines.push(...chartSections(r));
   lines.push('## Return to service', '');
   for (const s of r.safety.returnToService) lines.push(`- [ ] ${s.says}`);
   const after = Object.entries(((r.raw?.outcome as Record<string, unknown> | undefined)?.readingsAfter ?? {}) as Record<string, unknown>);
@@ -161,4 +167,15 @@ export function jobReport(r: ReportInput): string {
   }
   lines.push('', '---', '', 'Names and times are recorded as they were given; dctriage does not verify them. dctriage advises; it does not make equipment safe. Local regulations, site procedures and licensed practice prevail.', '');
   return lines.join('\n');
+}
+
+/** The test series and the asset's history as the terminal draws them, in fixed-width blocks. */
+function chartSections(r: ReportInput): string[] {
+  // Text people typed may hold backticks: they must not close the block.
+  const block = (text: string) => ['```text', text.replace(/`/g, "'"), '```', ''];
+  const out: string[] = [];
+  const series = formatSeries(r.job.tests, r.diagnosis.analyses);
+  if (series) out.push('## Test series', '', ...block(series));
+  if (r.history && r.history.jobs.length > 0) out.push('## Asset history', '', ...block(formatHistory(r.history)));
+  return out;
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { caseSchema } from '../../src/knowledge/case-schema.js';
 import { analyseTests } from '../../src/engine/series-analyses.js';
-import { formatSeries } from '../../src/shell/format-series.js';
+import { formatSeries } from '../../src/report/series-text.js';
 import { blockChart } from '../../src/chart/series-chart.js';
 
 describe('series charts for the terminal', () => {

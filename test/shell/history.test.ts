@@ -1,6 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { fileURLToPath } from 'node:url';
-import { readRecordedJobs, formatHistory } from '../../src/shell/history.js';
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { readRecordedJobs } from '../../src/shell/history.js';
+import { formatHistory } from '../../src/report/history-text.js';
 import { assetHistory } from '../../src/engine/asset-history.js';
 import { runCli } from '../support/cli.js';
 
@@ -69,5 +73,14 @@ describe('an asset\'s history', () => {
     const r = runCli(['history', 'No such asset', '--cases', DIR]);
     expect(r.code).toBe(1);
     expect(r.stderr).toContain('no recorded jobs for asset "No such asset"');
+  });
+
+  it('puts the asset\'s history in the HTML job report', () => {
+    const report = join(mkdtempSync(join(tmpdir(), 'dctriage-history-')), 'job.html');
+    const r = runCli(['diagnose', join(DIR, '2025-06-20-ct4-2025.json'), '--cases', DIR, '--report', report]);
+    expect(r.code).toBe(0);
+    const html = readFileSync(report, 'utf8');
+    expect(html).toContain('<h2>Asset history</h2>');
+    expect(html).toMatch(/2025-06-20 █+ +45 MΩ/);
   });
 });
