@@ -18,6 +18,7 @@ Usage:
   dctriage rules check [--json]         review the rule folder, then run every recorded case
   dctriage rules adopt DRAFT [--force]  move a reviewed draft into the rule folder
   dctriage review FILE [--close NAME]   a lead's review of a saved job: its report; --close marks it closed
+  dctriage history ASSET [--json]       an asset's recorded jobs and its insulation trend (--cases DIR)
   dctriage --help | --version
 
 Options:
