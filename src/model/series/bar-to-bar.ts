@@ -165,11 +165,23 @@ function describePattern(suspects: BarSuspect[], rings: WindingRing[], s: BarToB
       continue;
     }
     for (const x of of) parts.push(`${kind} between bars ${x.bars[0]} and ${x.bars[1]} (${signedPercent(x.deviation)})${single(kind, s)}`);
+    if (s.winding !== 'wave' && evenlySpaced(firsts, bars)) {
+      parts.push(`the ${kind} pairs lie evenly round the commutator, about ${Math.round(bars / of.length)} bars apart: on a wave winding of ${2 * of.length} poles one coil shows so; check the winding`);
+    }
   }
   const ground = suspects.find((x) => x.kind === 'ground');
   if (ground) parts.push(`ground nearest bar ${ground.bars[0]}: the lowest bar-to-shaft reading`);
   if (s.winding === 'wave' && s.poles === undefined && pairs.length > 1) parts.push('poles not given: a wave fault repeats every pole pair, so give the poles to tie readings together');
   return parts.join('; ');
+}
+
+/** Pairs spaced equally round the commutator (within a bar), as one wave coil shows. */
+function evenlySpaced(firsts: number[], bars: number): boolean {
+  if (firsts.length < 2) return false;
+  const sorted = [...firsts].sort((a, b) => a - b);
+  const gaps = sorted.map((x, i) => (i + 1 < sorted.length ? sorted[i + 1]! - x : sorted[0]! + bars - x));
+  const pitch = bars / firsts.length;
+  return gaps.every((g) => Math.abs(g - pitch) <= 1);
 }
 
 function single(kind: BarFaultKind, s: BarToBarSeries): string {

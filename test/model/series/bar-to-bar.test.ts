@@ -97,3 +97,12 @@ describe('bar-to-bar analysis', () => {
     });
   }
 });
+
+describe('bar-to-bar patterns on an undeclared winding', () => {
+  it('says when outliers lie evenly round the commutator, as one wave coil shows', () => {
+    const g = barSeries({ winding: 'wave', poles: 6, bars: 31, noise: 0, fault: { kind: 'open', coil: 4 } }, rng(9));
+    const a = analyseBarToBar({ method: 'resistance', winding: 'unknown', values: g.values });
+    expect(a.suspects).toHaveLength(3);
+    expect(a.pattern).toContain('evenly round the commutator, about 10 bars apart: on a wave winding of 6 poles');
+  });
+});
