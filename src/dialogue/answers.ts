@@ -33,7 +33,7 @@ export function parseAnswer(q: DialogueQuestion, typed: string): ParsedAnswer {
       // Kept as typed, like a quantity; the job reads it into its tests (job.ts).
       const line = seriesFromText(a.series, text);
       if (!line.ok) return { ok: false, reason: line.reason };
-      return { ok: true, value: { kind: 'text', value: text }, shown: `${line.count} readings: ${text.length > 60 ? `${text.slice(0, 57)}…` : text}` };
+      return { ok: true, value: { kind: 'text', value: text }, shown: `${line.count} readings: ${line.says}` };
     }
     case 'text':
       return { ok: true, value: { kind: 'text', value: text }, shown: text };

@@ -7,7 +7,10 @@
  * A reading may carry its own unit ("0.0021V"). The line becomes the case file's `tests` entry,
  * checked by the same schema as a file, so a bad line gets the same message.
  */
-import { testsSchema } from '../knowledge/tests-schema.js';
+import { testsSchema, type TestsFile } from '../knowledge/tests-schema.js';
+import { analyseBarToBar } from '../model/series/bar-to-bar.js';
+import { analysePoleDrop } from '../model/series/pole-drop.js';
+import { analyseRunout } from '../model/series/runout.js';
 import type { DialogueSeries } from '../model/series/findings.js';
 import { parseQuantity } from '../units/quantity.js';
 
@@ -15,7 +18,7 @@ const NUMBER = /^[+-]?(\d+[.,]?\d*|[.,]\d+)(e[+-]?\d+)?$/i;
 const WITH_UNIT = /^[+-]?(\d+[.,]?\d*|[.,]\d+)(e[+-]?\d+)?[^\d\s.,+-].*$/i;
 const FIELD_WORDS = { series: 'series-field', interpole: 'interpole', compensating: 'compensating', shunt: 'shunt-field' } as const;
 
-export type SeriesLine = { ok: true; input: Record<string, unknown>; count: number } | { ok: false; reason: string };
+export type SeriesLine = { ok: true; input: Record<string, unknown>; count: number; says: string } | { ok: false; reason: string };
 
 /** The `tests` entry a typed line stands for, or why it cannot be read. */
 export function seriesFromText(series: DialogueSeries, text: string): SeriesLine {
@@ -57,7 +60,22 @@ export function seriesFromText(series: DialogueSeries, text: string): SeriesLine
     const where = first.path.slice(1).filter((p) => typeof p === 'number');
     return { ok: false, reason: `${first.message}${where.length && !first.message.startsWith('reading') ? ` (reading ${Number(where[0]) + 1})` : ''}` };
   }
-  return { ok: true, input, count: values.length };
+  return { ok: true, input, count: values.length, says: summary(checked.data) };
+}
+
+/** What the series shows at a glance, for the transcript line of the answer. */
+function summary(t: TestsFile): string {
+  if (t.barToBar) return analyseBarToBar(t.barToBar).pattern;
+  if (t.poleDrop) {
+    const s = analysePoleDrop(t.poleDrop).suspects;
+    return s.length ? s.map((x) => `coil ${x.coil} ${x.kind.replace('-', ' ')} (${Math.round(x.deviation * 100)} %)`).join(', ') : 'every coil within 8 % of the median';
+  }
+  if (t.runout) {
+    // The limit is judged with the machine, in the result; here only the size and the shape.
+    const r = analyseRunout(t.runout, Infinity);
+    return `TIR ${r.tir} ${t.runout.unit}, largest step ${r.maxStep} ${t.runout.unit}`;
+  }
+  return '';
 }
 
 /** The unit written on the first reading that carries one ("41mV" → "mV"). */
