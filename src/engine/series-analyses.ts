@@ -77,14 +77,14 @@ export function seriesFacts(a: Analyses): SeriesFacts {
   const words: Record<string, string> = {};
   if (a.barToBar) {
     const kinds = new Set(a.barToBar.suspects.map((s) => s.kind));
-    if (kinds.size === 0) codes.push('bar-to-bar-even');
+    if (kinds.size === 0 && a.barToBar.usable) codes.push('bar-to-bar-even');
     for (const k of kinds) codes.push(`bar-to-bar-${k}`);
     words.barToBar = a.barToBar.pattern;
   }
   if (a.poleDrop) {
     const p = a.poleDrop;
     codes.push(`pole-drop-${p.winding}` as TestFinding, `pole-drop-${p.supply}`);
-    if (p.suspects.length === 0) codes.push('pole-drop-even');
+    if (p.suspects.length === 0 && p.usable) codes.push('pole-drop-even');
     if (p.suspects.some((s) => s.kind === 'shorted-turns')) codes.push('pole-drop-shorted-turns');
     if (p.suspects.some((s) => s.kind === 'shorted')) codes.push('pole-drop-coil-shorted');
     if (p.suspects.some((s) => s.kind === 'open')) codes.push('pole-drop-coil-open');

@@ -52,3 +52,10 @@ describe('test series in the diagnosis', () => {
     if (!r.ok) expect(r.issues[0]?.message).toContain('"bar-to-bar-wobbly" is not a test finding');
   });
 });
+
+describe('series that say more about the test than the machine', () => {
+  it('do not count against any cause', async () => {
+    const d = await diagnoseJob({ machine: shunt, symptoms: ['sparking'], tests: { barToBar: { method: 'voltage-drop', unit: 'mV', winding: 'lap', values: [0, 0, 0, 1.9, 0] }, poleDrop: { supply: 'dc', winding: 'shunt-field', values: [0, 0, 0, 0] } } });
+    expect(d.facts.testFindings).toEqual(['pole-drop-shunt-field', 'pole-drop-dc']);
+  });
+});

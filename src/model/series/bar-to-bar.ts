@@ -52,6 +52,8 @@ export interface BarToBarAnalysis {
   period: number;
   /** Fraction off the median beyond which a reading is suspect. */
   threshold: number;
+  /** False when the readings say more about the test than the winding (most of them zero). */
+  usable: boolean;
 }
 
 /** TM 55-2210-223-34: 10 % off the average of the comparative test. */
@@ -63,6 +65,11 @@ const GROUND_FRACTION = 0.3;
 export function analyseBarToBar(series: BarToBarSeries): BarToBarAnalysis {
   const v = series.values;
   const bars = v.length;
+  if (!(median(v) > 0)) {
+    // Half the readings or more at zero: the test, not the winding, needs looking at first.
+    const ground = groundOf(series.toShaft);
+    return { suspects: ground ? [ground] : [], pattern: 'most readings are zero: check the test current, the leads and the meter range, then repeat', next: ['repeat the test'], median: median(v), ratios: v.map(() => 0), period: 1, threshold: BAR_TOLERANCE, usable: false };
+  }
   const { period, reference } = alternation(v);
   const ratios = v.map((x, i) => (reference[i % period]! > 0 ? x / reference[i % period]! : NaN));
   const threshold = Math.max(BAR_TOLERANCE, SPREAD_MULTIPLE * robustSpread(ratios));
@@ -85,7 +92,7 @@ export function analyseBarToBar(series: BarToBarSeries): BarToBarAnalysis {
   if (ground) suspects.push(ground);
 
   const pattern = describePattern(suspects, rings, series, period) + (allowed.length ? '' : `; a simplex wave winding of ${series.poles} poles cannot have ${bars} bars, judged as lap`);
-  return { suspects, pattern, next: nextSteps(suspects, series), median: median(v), ratios: ratios.map(round), period, threshold: round(threshold) };
+  return { suspects, pattern, next: nextSteps(suspects, series), median: median(v), ratios: ratios.map(round), period, threshold: round(threshold), usable: true };
 }
 
 /**

@@ -34,6 +34,8 @@ export interface PoleDropAnalysis {
   median: number;
   ratios: number[];
   notes: string[];
+  /** False when no coil reads anything: the field carried no current. */
+  usable: boolean;
 }
 
 /** Coils this far off the median are suspect: wider than a meter's ±3 % on two readings, tighter than a shorted turn of a few. */
@@ -61,11 +63,12 @@ export function analysePoleDrop(s: PoleDropSeries): PoleDropAnalysis {
       else if (d >= POLE_DROP_TOLERANCE && v.length > 2) suspects.push({ coil: i + 1, kind: 'high', deviation: round(d) });
     });
   }
+  if (!(total > 0)) notes.push('every coil reads zero: no current in the field circuit; check the supply and the circuit end to end');
   if (s.supply === 'dc') notes.push('DC test: shorted turns lower a coil only by the resistance they take out; repeat with a low AC voltage to see them clearly');
   if (suspects.some((x) => x.kind === 'high')) notes.push('a coil above the others: a poor joint in it, or shorted turns in the others');
   if (v.length === 2 && suspects.length) notes.push('two coils only: a low one may be the other reading high; measure each coil\'s resistance');
   notes.push('a reversed coil drops the same as the others: check the polarity of each pole with a compass');
-  return { suspects, median: m, ratios: v.map((x) => round(m > 0 ? x / m : 0)), notes };
+  return { suspects, median: m, ratios: v.map((x) => round(m > 0 ? x / m : 0)), notes, usable: total > 0 };
 }
 
 const round = (x: number) => Number(x.toFixed(4));

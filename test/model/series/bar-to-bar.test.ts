@@ -106,3 +106,11 @@ describe('bar-to-bar patterns on an undeclared winding', () => {
     expect(a.pattern).toContain('evenly round the commutator, about 10 bars apart: on a wave winding of 6 poles');
   });
 });
+
+describe('bar-to-bar readings that say more about the test than the winding', () => {
+  it('asks for a repeat when most readings are zero', () => {
+    const a = analyseBarToBar({ method: 'voltage-drop', winding: 'lap', values: [0, 0, 0, 1.9, 0] });
+    expect(a.suspects).toEqual([]);
+    expect(a.pattern).toContain('most readings are zero');
+  });
+});

@@ -40,3 +40,11 @@ describe('pole drop analysis', () => {
     );
   });
 });
+
+describe('pole drop with no field current', () => {
+  it('says the field circuit carries no current when every coil reads zero', () => {
+    const a = analysePoleDrop({ supply: 'dc', winding: 'shunt-field', values: [0, 0, 0, 0] });
+    expect(a.suspects).toEqual([]);
+    expect(a.notes[0]).toContain('no current in the field circuit');
+  });
+});
