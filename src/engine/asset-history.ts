@@ -5,6 +5,7 @@
  * A job's date is its `outcome.date`, else the day of `job.startedAt`. Pure: takes loaded cases.
  */
 import type { CaseFile } from '../knowledge/case-schema.js';
+import type { TestedWinding } from '../model/machine.js';
 import { insulationMinimum } from '../model/insulation.js';
 import { resistanceAt } from '../model/resistance.js';
 import { analyseInsulationCurve, correctTo40C } from '../model/series/insulation-curve.js';
@@ -22,8 +23,10 @@ export interface HistoryJob {
   cause?: string | undefined;
   causeTitle?: string | undefined;
   fix?: string | undefined;
-  /** 1-minute insulation resistance corrected to 40 °C, MΩ. */
+  /** 1-minute insulation resistance corrected to 40 °C, MΩ, the winding it was taken on, and the winding temperature then. */
   insulationAt40C?: number | undefined;
+  insulationWinding?: TestedWinding | undefined;
+  insulationTestC?: number | undefined;
   /** Armature circuit resistance at 20 °C, Ω. */
   armatureAt20C?: number | undefined;
   /** Shunt field resistance at 20 °C, Ω. */
@@ -36,7 +39,16 @@ export interface AssetHistory {
   asset: string;
   jobs: HistoryJob[];
   trends: {
-    insulation: { points: DatedPoint[]; perYear: number | null; minimum: number | null; projectedMinimumDate: string | null };
+    insulation: {
+      /** The winding of the latest test: only tests on it make the trend. */
+      winding: TestedWinding | null;
+      points: DatedPoint[];
+      perYear: number | null;
+      minimum: number | null;
+      projectedMinimumDate: string | null;
+      /** Why the trend is rougher than it looks (tests far apart in temperature). */
+      cautions: string[];
+    };
     armatureResistance: { points: DatedPoint[] };
     shuntFieldResistance: { points: DatedPoint[] };
   };
@@ -49,18 +61,21 @@ export function jobDate(c: CaseFile): string | null {
 }
 
 const REFERENCE_C = 20;
+/** Tests further apart in winding temperature than this make a rough trend (shared check-values 2.3). */
+const TREND_TEMPERATURE_SPAN_C = 10;
 
-function insulationOf(c: CaseFile): number | undefined {
+function insulationOf(c: CaseFile): Pick<HistoryJob, 'insulationAt40C' | 'insulationWinding' | 'insulationTestC'> {
   const system = insulationSystemOf(c.machine);
   const curve = c.tests?.insulation;
   if (curve) {
     const at40 = analyseInsulationCurve(curve, system).oneMinuteAt40C;
-    if (at40 !== null) return at40;
+    if (at40 !== null) return { insulationAt40C: at40, insulationWinding: curve.winding, insulationTestC: curve.temperature };
   }
   const r = c.readings;
   const ir1 = r?.insulationResistance1min;
   const t = r?.insulationTestTemperature ?? r?.ambientTemperature;
-  return ir1 !== undefined && t !== undefined ? round(correctTo40C(ir1, t, system)) : undefined;
+  if (ir1 === undefined || t === undefined) return {};
+  return { insulationAt40C: round(correctTo40C(ir1, t, system)), insulationWinding: r?.insulationTestedWinding ?? 'whole-machine', insulationTestC: t };
 }
 
 function at20(ohms: number | undefined, c: CaseFile): number | undefined {
@@ -81,7 +96,7 @@ export function assetHistory(asset: string, recorded: readonly RecordedJob[], ca
         cause,
         causeTitle: cause ? (causeTitles.get(cause) ?? c.outcome?.newCause?.title) : undefined,
         fix: c.outcome?.fix,
-        insulationAt40C: insulationOf(c),
+        ...insulationOf(c),
         armatureAt20C: at20(c.machine.resistances?.armature, c),
         shuntFieldAt20C: at20(c.machine.resistances?.shuntField, c),
       };
@@ -94,9 +109,18 @@ export function assetHistory(asset: string, recorded: readonly RecordedJob[], ca
       const v = pick(j);
       return j.date !== null && v !== undefined ? [[j.date, v] as DatedPoint] : [];
     });
-  const insulation = points((j) => j.insulationAt40C);
-  const latest = [...mine].reverse().find((r) => r.job.tests?.insulation || r.job.readings?.insulationResistance1min !== undefined)?.job;
-  const minimum = latest ? minimumFor(latest) : null;
+  // One winding's tests make a trend: the latest test's winding.
+  const lastTested = [...jobs].reverse().find((j) => j.date !== null && j.insulationAt40C !== undefined);
+  const winding = lastTested?.insulationWinding ?? null;
+  const insulation = points((j) => (j.insulationWinding === winding ? j.insulationAt40C : undefined));
+  const latest = mine.find((r) => r.file === lastTested?.file)?.job;
+  const minimum = latest && winding ? minimumFor(latest, winding) : null;
+  const temperatures = jobs.filter((j) => j.date !== null && j.insulationWinding === winding && j.insulationTestC !== undefined).map((j) => j.insulationTestC!);
+  const cautions: string[] = [];
+  // EASA, Revisiting insulation resistance temperature correction (2013): retest near the same temperature when trending.
+  if (temperatures.length > 1 && Math.max(...temperatures) - Math.min(...temperatures) > TREND_TEMPERATURE_SPAN_C) {
+    cautions.push(`tests between ${Math.min(...temperatures)} and ${Math.max(...temperatures)} °C: correcting over more than ${TREND_TEMPERATURE_SPAN_C} °C is rough; test near the same winding temperature to trend`);
+  }
   const trend = lineOf(insulation);
   let projected: string | null = null;
   if (trend && trend.perYear < 0 && minimum !== null) projected = dateAt((minimum - trend.intercept) / trend.perYear);
@@ -104,16 +128,15 @@ export function assetHistory(asset: string, recorded: readonly RecordedJob[], ca
     asset,
     jobs,
     trends: {
-      insulation: { points: insulation, perYear: trend ? round(trend.perYear) : null, minimum, projectedMinimumDate: projected },
+      insulation: { winding, points: insulation, perYear: trend ? round(trend.perYear) : null, minimum, projectedMinimumDate: projected, cautions },
       armatureResistance: { points: points((j) => j.armatureAt20C) },
       shuntFieldResistance: { points: points((j) => j.shuntFieldAt20C) },
     },
   };
 }
 
-function minimumFor(c: CaseFile): number {
+function minimumFor(c: CaseFile, winding: TestedWinding): number {
   const np = c.machine.nameplate ?? {};
-  const winding = c.tests?.insulation?.winding ?? c.readings?.insulationTestedWinding ?? 'whole-machine';
   return insulationMinimum(winding, { armature: np.armatureVoltage ?? 1000, field: np.fieldVoltage ?? np.armatureVoltage ?? 1000 });
 }
 

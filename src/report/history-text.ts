@@ -12,7 +12,7 @@ export function formatHistory(h: AssetHistory): string {
   }
   const ins = h.trends.insulation;
   if (ins.points.length) {
-    lines.push('', 'Insulation resistance at 1 min, corrected to 40 °C (IEEE 43-2013)');
+    lines.push('', `Insulation resistance at 1 min, corrected to 40 °C (IEEE 43-2013), ${ins.winding ?? ''}`.trimEnd());
     lines.push(...barRows(ins.points.map(([d, v]) => ({ label: d, value: v, text: `${fmt(v)} MΩ` }))));
     if (ins.perYear !== null) lines.push(`  trend ${ins.perYear < 0 ? 'falling' : 'not falling'}: ${fmt(ins.perYear)} MΩ a year (straight line through the points)`);
     if (ins.minimum !== null) {
@@ -22,6 +22,7 @@ export function formatHistory(h: AssetHistory): string {
           : `  no projection: the trend is not falling, or there are too few dated tests (minimum ${fmt(ins.minimum)} MΩ)`,
       );
     }
+    for (const c of ins.cautions) lines.push(`  caution: ${c}`);
   }
   for (const [title, t] of [
     ['Armature circuit resistance at 20 °C', h.trends.armatureResistance],

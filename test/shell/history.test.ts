@@ -83,4 +83,19 @@ describe('an asset\'s history', () => {
     expect(html).toContain('<h2>Asset history</h2>');
     expect(html).toMatch(/2025-06-20 █+ +45 MΩ/);
   });
+
+  it('trends one winding only, the latest test\'s, and cautions when tests lie far apart in temperature (EASA 2013; check-values 2.3)', () => {
+    const jobs = readRecordedJobs(DIR);
+    if (!jobs.ok) throw new Error('fixture');
+    const changed = jobs.value.map((j) => {
+      if (j.job.outcome?.date === '2023-04-02') return { ...j, job: { ...j.job, readings: { ...j.job.readings, insulationTestedWinding: 'shunt-field' as const } } };
+      if (j.job.outcome?.date === '2025-06-20') return { ...j, job: { ...j.job, readings: { ...j.job.readings, insulationTestTemperature: 45 } } };
+      return j;
+    });
+    const ins = assetHistory(ASSET, changed, new Map()).trends.insulation;
+    expect(ins.winding).toBe('armature');
+    expect(ins.points.map(([d]) => d)).toEqual(['2022-03-10', '2024-05-15', '2025-06-20']);
+    expect(ins.cautions[0]).toContain('tests between 20 and 45 °C');
+  });
 });
+
