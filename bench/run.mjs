@@ -80,5 +80,8 @@ console.log(`dctriage bench (${runs} runs each, medians; node ${process.version}
 console.log(`${pad('what', 64)}${pad('ms', 10)}${pad('× bare', 9)}note`);
 for (const [what, ms, ratio, note] of rows) console.log(`${pad(what, 64)}${pad(ms.toFixed(1), 10)}${pad(ratio === null ? '' : ratio.toFixed(2), 9)}${note}`);
 
+// Not timings: how often the series analysers find an inserted fault, on 500 generated series of each kind.
+console.log(`\nseries analysers on generated series (bench/series-detection.ts)\n${execFileSync(tsx, [join(root, 'bench', 'series-detection.ts'), '500'], { cwd: root, encoding: 'utf8' })}`);
+
 // The generated rule base, cases and dialogue state are only for this run.
 for (const dir of [state, big, many]) rmSync(dir, { recursive: true, force: true });

@@ -15,6 +15,7 @@ import { caseSchema, machineSchema } from './knowledge/case-schema.js';
 import { safetyFile } from './knowledge/rulebase-schema.js';
 import { diagnose } from './engine/diagnose.js';
 import { buildEngine, RuleCycleError } from './engine/run-rules.js';
+import { analyseTests } from './engine/series-analyses.js';
 import { checkCases, type CaseRunner } from './engine/check-cases.js';
 import { buildFlow, type Flow } from './dialogue/flow.js';
 import { replayCase } from './dialogue/replay.js';
@@ -30,6 +31,10 @@ import { chartText } from './shell/chart-text.js';
 import { readSettings, resolveKnowledge } from './shell/settings.js';
 import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
+import { formatSeries } from './report/series-text.js';
+import { historyOf, readRecordedJobs } from './shell/history.js';
+import { formatHistory } from './report/history-text.js';
+import { assetHistory, earlierJobsNote, type RecordedJob } from './engine/asset-history.js';
 import { formatCaseCheck } from './shell/format-case-check.js';
 import { helpFor } from './shell/help.js';
 import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
@@ -116,10 +121,12 @@ async function main(argv: string[]): Promise<number> {
       if (!loaded.ok) return fail(loaded.issues);
       const { job } = loaded.value;
       const e = computeExpectations(modelInput(job));
-      if (opts.json) out(JSON.stringify({ format: JSON_FORMATS.expectation, quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings }, null, 2));
+      if (opts.json) out(JSON.stringify({ format: JSON_FORMATS.expectation, quantities: e.quantities, missing: e.missing, assumptions: e.assumptions, findings: e.findings, analyses: analyseTests(job) }, null, 2));
       else {
         const chart = opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor());
         outText(formatExpectation(e, terminalWidth()) + (chart ? `\n\n${chart}` : ''));
+        const series = formatSeries(job.tests, analyseTests(job), Math.max(20, terminalWidth() - 10));
+        if (series) out(`\n${series}`);
       }
       return 0;
     }
@@ -131,7 +138,7 @@ async function main(argv: string[]): Promise<number> {
       const engine = buildEngine(base);
       const replay = opts.adaptive ? await replayCase(raw, buildFlow(base), engine) : undefined;
       const d = replay?.diagnosis ?? (await diagnose(job, base, engine));
-      const report = { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString(), timeZone: localTimeZone(), producedBy: producedBy(loaded.value.rulesDir) };
+      const report = { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString(), timeZone: localTimeZone(), producedBy: producedBy(loaded.value.rulesDir), history: historyForReport(job.job?.asset, opts, base) };
       if (opts.report === '-') return out(jobReport(report)), 0;
       if (opts.json) {
         out(JSON.stringify({
@@ -146,10 +153,13 @@ async function main(argv: string[]): Promise<number> {
           withheld: d.withheld.map(({ id, title, because, instead }) => ({ id, title, because, instead })),
           isolation: d.isolation,
           quantities: d.expectation.quantities,
+          analyses: d.analyses,
         }, null, 2));
       } else {
         if (replay) outText(`Asked ${replay.questionsAsked.length} questions (${replay.questionsAsked.join(', ') || 'none'}); stopped: ${replay.stoppedBecause}.\n`);
         outText(formatDiagnosis(d, { width: terminalWidth(), color: useColor(), chart: opts['no-chart'] ? undefined : chartText(modelInput(job), terminalWidth(), useColor()) }));
+        const series = formatSeries(job.tests, d.analyses, Math.max(20, terminalWidth() - 10));
+        if (series) out(`\nTest series\n\n${series}`);
       }
       if (opts.report !== undefined) {
         try {
@@ -189,6 +199,17 @@ async function main(argv: string[]): Promise<number> {
       const base = loadRules(k.value.rules);
       if (!base.ok) return fail(base.issues);
       return print(await reviewJob(args[0]!, base.value, opts.close, new Date().toISOString(), localTimeZone(), producedBy(k.value.rules)), false);
+    }
+    case 'history': {
+            const k = knowledge(opts, true);
+      if (!k.ok) return fail(k.issues);
+      const base = loadRules(k.value.rules);
+      if (!base.ok) return fail(base.issues);
+      const h = historyOf(args[0]!, k.value.cases, new Map(base.value.causes.map((c) => [c.id, c.title])));
+      if (!h.ok) return fail(h.issues);
+      if (h.value.jobs.length === 0) return print({ code: 1, err: `no recorded jobs for asset "${args[0]}" in ${k.value.cases}` });
+      out(opts.json ? JSON.stringify({ format: JSON_FORMATS.history, ...h.value }, null, 2) : formatHistory(h.value));
+      return 0;
     }
     case '':
     case 'resume':
@@ -345,7 +366,7 @@ async function dialogue(
     return {
       ok: true,
       props: {
-        ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true, remoteAuthorisationAllowed: settings.value.remoteAuthorisationAllowed ?? false } },
+        ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true, remoteAuthorisationAllowed: settings.value.remoteAuthorisationAllowed ?? false }, earlierJobs: earlierJobsFor(opts, base.value) },
         engine: buildEngine(base.value),
         safetyNotice: base.value.safety.notice,
         initialAnswers,
@@ -419,6 +440,28 @@ function recordJob(draft: Record<string, unknown>, base: RuleBase, opts: { rules
   return filed.ok ? `Recorded the job as ${filed.value.file}` : `Not recorded: ${formatIssues(filed.issues)}. The session is kept; type save to keep the job here instead.`;
 }
 
+
+/** The asset's recorded jobs for a report; none when it has no name or the folder cannot be read. */
+function historyForReport(asset: string | undefined, opts: { rules?: string | undefined; cases?: string | undefined }, base: RuleBase) {
+  const k = knowledge(opts, true);
+  if (!asset || !k.ok) return undefined;
+  const h = historyOf(asset, k.value.cases, new Map(base.causes.map((c) => [c.id, c.title])));
+  return h.ok ? h.value : undefined;
+}
+
+/** The dialogue's line on an asset's earlier jobs, from the cases folder in use, read when first asked; nothing if it cannot be read. */
+function earlierJobsFor(opts: { rules?: string | undefined; cases?: string | undefined }, base: RuleBase): (asset: string) => string | undefined {
+  let jobs: RecordedJob[] | undefined;
+  const titles = new Map(base.causes.map((c) => [c.id, c.title]));
+  return (asset) => {
+    if (!jobs) {
+      const k = knowledge(opts, true);
+      const read = k.ok ? readRecordedJobs(k.value.cases) : k;
+      jobs = read.ok ? read.value : [];
+    }
+    return earlierJobsNote(assetHistory(asset, jobs, titles), today());
+  };
+}
 
 function causeIdsOf(base: RuleBase): Set<string> {
   return new Set(base.causes.map((c) => c.id));

@@ -6,6 +6,7 @@ import { describeQuantityError, DIMENSIONS, normalizeQuantityText, parseQuantity
 import { quote } from '../units/quote.js';
 import type { DialogueQuestion } from './questions.js';
 import { editDistance as distance } from './edit-distance.js';
+import { seriesFromText } from './series-answer.js';
 
 export type AnswerValue = { kind: 'unknown' } | { kind: 'one'; value: string } | { kind: 'many'; values: string[] } | { kind: 'text'; value: string };
 
@@ -15,17 +16,26 @@ const UNKNOWN_WORDS = new Set(['', 'unknown', '?', '-', 'skip', 'dunno', "don't 
 /** Typed text beyond this is cut before reading: nobody types a 300-character answer. */
 export const MAX_ANSWER_LENGTH = 200;
 
-export function cleanInput(text: string): string {
+/** A series is typed on one line: 200 bar-to-bar readings and their unit fit. */
+export const MAX_SERIES_LENGTH = 2000;
+
+export function cleanInput(text: string, max = MAX_ANSWER_LENGTH): string {
   // Control characters (pasted escape sequences, tabs) are dropped; spaces are kept single.
   // eslint-disable-next-line no-control-regex
-  return text.replace(/[\u0000-\u001f\u007f]/g, ' ').replace(/\s+/g, ' ').trim().slice(0, MAX_ANSWER_LENGTH);
+  return text.replace(/[\u0000-\u001f\u007f]/g, ' ').replace(/\s+/g, ' ').trim().slice(0, max);
 }
 
 export function parseAnswer(q: DialogueQuestion, typed: string): ParsedAnswer {
-  const text = cleanInput(typed);
-  if (UNKNOWN_WORDS.has(text.toLowerCase())) return { ok: true, value: { kind: 'unknown' }, shown: 'unknown' };
   const a = q.answer;
+  const text = cleanInput(typed, a.kind === 'series' ? MAX_SERIES_LENGTH : MAX_ANSWER_LENGTH);
+  if (UNKNOWN_WORDS.has(text.toLowerCase())) return { ok: true, value: { kind: 'unknown' }, shown: 'unknown' };
   switch (a.kind) {
+    case 'series': {
+      // Kept as typed, like a quantity; the job reads it into its tests (job.ts).
+      const line = seriesFromText(a.series, text);
+      if (!line.ok) return { ok: false, reason: line.reason };
+      return { ok: true, value: { kind: 'text', value: text }, shown: `${line.count} readings: ${line.says}` };
+    }
     case 'text':
       return { ok: true, value: { kind: 'text', value: text }, shown: text };
     case 'quantity': {

@@ -7,6 +7,7 @@ import { caseSchema, CASE_FORMAT, type CaseFile, type CaseInput, type MachineFil
 import type { AnswerValue } from './answers.js';
 import type { Target } from './questions.js';
 import { checksFromWork, type WorkEntry } from './work.js';
+import { seriesFromText } from './series-answer.js';
 
 export interface Answer {
   questionId: string;
@@ -29,7 +30,7 @@ export function jobFromAnswers(answers: readonly Answer[], machineFile?: unknown
   const into = (t: Target): Record<string, unknown> | undefined => {
     if (t.section === 'machine') return draft.machine;
     if (t.section === 'nameplate') return (draft.machine.nameplate ??= {});
-    if (t.section === 'job' || t.section === 'observations' || t.section === 'readings') return (record[t.section] ??= {});
+    if (t.section === 'job' || t.section === 'observations' || t.section === 'readings' || t.section === 'tests') return (record[t.section] ??= {});
     return undefined; // symptoms are a list; the outcome is recorded separately (outcome.ts)
   };
   for (const a of answers) {
@@ -41,7 +42,10 @@ export function jobFromAnswers(answers: readonly Answer[], machineFile?: unknown
     const obj = into(t);
     if (!obj || !('name' in t)) continue;
     if (a.value.kind === 'unknown') delete obj[t.name];
-    else obj[t.name] = a.value.kind === 'many' ? a.value.values : a.value.value;
+    else if (t.section === 'tests' && a.value.kind === 'text') {
+      const line = seriesFromText(t.name, a.value.value);
+      if (line.ok) obj[t.name] = line.input;
+    } else obj[t.name] = a.value.kind === 'many' ? a.value.values : a.value.value;
   }
   const checks = checksFromWork(work);
   if (checks.length) (draft as Record<string, unknown>).checks = checks;

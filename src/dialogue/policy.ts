@@ -17,6 +17,7 @@ import type { RuleBase } from '../knowledge/load-rules.js';
 import { quantitiesFedBy } from '../model/feeds.js';
 import type { DialogueQuestion } from './questions.js';
 import { compareIds } from '../engine/compare-ids.js';
+import { SERIES_OUTCOMES } from '../model/series/findings.js';
 
 export interface CompiledQuestion {
   question: DialogueQuestion;
@@ -96,6 +97,24 @@ export function compilePolicy(base: RuleBase, questions: DialogueQuestion[]): Po
             answers.forEach((a, k) => {
               const holds = named.includes(a) === positive;
               if (holds) factor[k]! *= Math.exp(ANSWER_WEIGHT_SCALE * ev.weight * sign);
+            });
+          }
+        }
+        const total = factor.reduce((s, x) => s + x, 0);
+        likelihood.set(cause, factor.map((x) => x / total));
+      }
+      compiled.push({ question: q, likelihood, answers });
+    } else if (t.section === 'tests') {
+      // Each answer is one finding the series can bring; rules naming it weigh as for a choice.
+      const answers = [...SERIES_OUTCOMES[t.name]];
+      const likelihood = new Map<string, number[]>();
+      for (const cause of causeIds) {
+        const factor = answers.map(() => 1);
+        for (const ev of evidence.filter((e) => e.cause === cause)) {
+          for (const { leaf, sign } of ev.leaves.filter((l) => l.leaf.fact === 'testFindings' && (answers as unknown[]).includes(l.leaf.value))) {
+            const positive = leaf.operator === 'contains';
+            answers.forEach((a, k) => {
+              if ((leaf.value === a) === positive) factor[k]! *= Math.exp(ANSWER_WEIGHT_SCALE * ev.weight * sign);
             });
           }
         }

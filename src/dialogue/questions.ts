@@ -8,6 +8,7 @@ import type { MachineState } from '../knowledge/rulebase-schema.js';
 import { COOLING, DRIVES, FEEDBACK, OBSERVATIONS, SYMPTOMS, type ObservationName } from '../knowledge/vocabulary.js';
 import { READING_FIELDS, type ReadingName } from '../knowledge/case-schema.js';
 import type { Dimension } from '../units/quantity.js';
+import type { DialogueSeries } from '../model/series/findings.js';
 
 /** Where an answer goes in the job. */
 export type Target =
@@ -17,6 +18,7 @@ export type Target =
   | { section: 'symptoms' }
   | { section: 'observations'; name: ObservationName }
   | { section: 'readings'; name: string }
+  | { section: 'tests'; name: DialogueSeries }
   | { section: 'outcome'; name: string };
 
 export interface Option {
@@ -29,6 +31,7 @@ export type AnswerKind =
   | { kind: 'many'; options: Option[] }
   /** `unit`: the unit the question shows and a bare number is taken in (else the dimension's default). */
   | { kind: 'quantity'; dimension: Dimension; unit?: string }
+  | { kind: 'series'; series: DialogueSeries }
   | { kind: 'text' };
 
 export interface DialogueQuestion {
@@ -81,6 +84,9 @@ export function fromRuleQuestion(q: Question, opening: boolean): DialogueQuestio
     const name = q.answer.reading;
     const field = READING_FIELDS[name as ReadingName];
     return { id: q.id, prompt: q.prompt, state: q.state, target: { section: 'readings', name }, answer: { kind: 'quantity', dimension: field.dimension }, source: q, opening };
+  }
+  if (q.answer.kind === 'series') {
+    return { id: q.id, prompt: q.prompt, state: q.state, target: { section: 'tests', name: q.answer.series }, answer: { kind: 'series', series: q.answer.series }, source: q, opening };
   }
   return { ...machineQuestions().find((m) => m.id === 'symptoms')!, id: q.id, prompt: q.prompt, source: q, opening };
 }

@@ -69,6 +69,8 @@ export interface DialogueContext {
   machineFile?: unknown;
   /** Who is working and what the site allows; a fitter with no limits when absent. */
   work?: WorkRules;
+  /** A line on the asset's earlier recorded jobs, when it has any (the shell reads the cases folder once). */
+  earlierJobs?: ((asset: string) => string | undefined) | undefined;
 }
 
 /** Words typed at any prompt that steer the dialogue rather than answer. */
@@ -188,7 +190,10 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   const answer: Answer = { questionId: step.question.id, target: step.question.target, value: parsed.value, shown: parsed.shown, at };
   const far = farFromPlate(state, answer, ctx);
   if (far) return { ...base, confirming: { answer, says: far } };
-  return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }] }, [...state.answers, answer]);
+  const target = step.question.target;
+  const history = target.section === 'job' && target.name === 'asset' && parsed.value.kind === 'text' ? ctx.earlierJobs?.(parsed.value.value) : undefined;
+  const notes: LogEntry[] = history ? [{ kind: 'note', text: history }] : [];
+  return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }, ...notes] }, [...state.answers, answer]);
 }
 
 /** What the model says of a reading several times its plate value, before it is let into the job. */

@@ -10,6 +10,7 @@ import type { AnswerValue } from './answers.js';
 import { nextStep, type Flow } from './flow.js';
 import { jobFromAnswers, parseDraft, type Answer } from './job.js';
 import type { DialogueQuestion } from './questions.js';
+import { seriesToText } from './series-answer.js';
 
 export interface Replay {
   diagnosis: Diagnosis;
@@ -38,6 +39,10 @@ export async function replayCase(raw: CaseInput, flow: Flow, engine: RuleEngines
 
 function answerFromFile(raw: CaseInput, q: DialogueQuestion): AnswerValue {
   const t = q.target;
+  if (t.section === 'tests') {
+    const series = (raw.tests as Record<string, unknown> | undefined)?.[t.name];
+    return series && typeof series === 'object' ? { kind: 'text', value: seriesToText(t.name, series as Record<string, unknown>) } : { kind: 'unknown' };
+  }
   const v =
     t.section === 'observations' ? (raw.observations as Record<string, unknown> | undefined)?.[t.name] :
     t.section === 'readings' ? (raw.readings as Record<string, unknown> | undefined)?.[t.name] :

@@ -17,6 +17,7 @@ export function whyAsked(q: DialogueQuestion, flow: Flow, d: Diagnosis | undefin
   const label = (k: number) => {
     const a = cq.answers[k]!;
     if (q.answer.kind === 'choice') return q.answer.options.find((o) => o.value === a)?.label ?? a;
+    if (q.answer.kind === 'series') return `a series showing ${a.replace(/-/g, ' ')}`;
     return a === 'out-of-band' ? 'a reading away from a healthy machine' : 'a healthy reading';
   };
   const lines = leaders.map(([id]) => {

@@ -90,6 +90,7 @@ export function reviewRuleBase(base: RuleBase): RuleFinding[] {
     const used =
       q.answer.kind === 'choice' ? read.has(q.answer.observation) :
       q.answer.kind === 'quantity' ? quantitiesFedBy(q.answer.reading).some((name) => quantitiesRead.has(name)) :
+      q.answer.kind === 'series' ? read.has('testFindings') :
       read.has('symptoms');
     if (!used) findings.push({ kind: 'unused-question', file: questionsFile, about: `questions[${k}] (${q.id})`, message: `no rule uses the answer to question "${q.id}"` });
   });

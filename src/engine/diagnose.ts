@@ -15,6 +15,7 @@ import { orderChecks } from './order-checks.js';
 import { checkValue, confirmedBy, resultEvidence } from './loop.js';
 import { runToFixpoint } from './run-rules.js';
 import { compareIds } from './compare-ids.js';
+import { analyseTests, type Analyses } from './series-analyses.js';
 
 export interface Evidence {
   rule: string;
@@ -77,6 +78,8 @@ export interface Diagnosis {
   withheld: WithheldCheck[];
   isolation: { beforeCheck: string | null; steps: string[] };
   expectation: Expectation;
+  /** What the test series show (bar-to-bar, pole drop, runout, insulation curve). */
+  analyses: Analyses;
   facts: Facts;
   /** Questions whose askWhen condition holds for this job. */
   askable: Set<string>;
@@ -87,7 +90,7 @@ export interface Diagnosis {
 /** How many of the leading causes contribute checks: as results clear them, the next ones come in. */
 const CAUSES_WITH_CHECKS = 5;
 
-export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'readings' | 'checks'>;
+export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'readings' | 'checks' | 'tests'>;
 
 /** open: checks remain; confirmed: a check found the fault; exhausted: every useful check is done, nothing confirmed. */
 export type LoopStatus = 'open' | 'confirmed' | 'exhausted';
@@ -97,7 +100,8 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
   // What the checks measured and saw enters the model and the rules like any other reading.
   const job = withCheckFindings(input, worked);
   const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
-  const { facts, fired, askable, askFirst, unsafe, cautions } = await runToFixpoint(engine, base, jobFacts(job, expectation));
+  const analyses = analyseTests(job);
+  const { facts, fired, askable, askFirst, unsafe, cautions } = await runToFixpoint(engine, base, jobFacts(job, expectation, analyses));
   // A derived fact is explained by what the rule that derived it saw, recursively.
   const derivedBy = new Map(fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])));
   const words = new Map<string, string>();
@@ -232,6 +236,7 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
       steps: firstIsolated ? isolationSteps(base.safety.isolation, job.machine.drive ?? 'unknown', job.machine.connection) : [],
     },
     expectation,
+    analyses,
     facts,
     askable,
     askFirst,
@@ -243,11 +248,13 @@ function withCheckFindings(job: JobInput, worked: readonly WorkedCheck[]): JobIn
   if (worked.length === 0) return job;
   let readings = { ...job.readings };
   let observations = { ...job.observations };
+  let tests = { ...job.tests };
   for (const w of worked) {
     readings = { ...readings, ...w.readings };
     observations = { ...observations, ...w.observations };
+    tests = { ...tests, ...w.tests };
   }
-  return { ...job, readings, observations };
+  return { ...job, readings, observations, tests };
 }
 
 /** Which causes each check shows: those that list it in the catalogue. */

@@ -23,7 +23,8 @@ function withUnit(x: number, unit: string): string {
 }
 
 export function fillTemplate(template: string, facts: Facts, e: Expectation): string {
-  return template.replace(/\{(value|measured|ratio|obs):?\.?([A-Za-z0-9-]+)\}/g, (whole, kind: string, name: string) => {
+  return template.replace(/\{(value|measured|ratio|obs|tests):?\.?([A-Za-z0-9-]+)\}/g, (whole, kind: string, name: string) => {
+    if (kind === 'tests') return (facts.testWords as Record<string, string> | undefined)?.[name] ?? 'no such test';
     if (kind === 'obs') {
       const spec = OBSERVATIONS[name as ObservationName];
       const answer = facts[name];

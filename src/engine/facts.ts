@@ -7,10 +7,11 @@ import type { CaseFile } from '../knowledge/case-schema.js';
 import { CONNECTION_TRAITS } from '../model/machine.js';
 import type { Expectation } from '../model/expected.js';
 import { afterSwap } from '../model/reversal.js';
+import { analyseTests, seriesFacts, type Analyses } from './series-analyses.js';
 
 export type Facts = Record<string, unknown>;
 
-export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations'>, e: Expectation): Facts {
+export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'tests'>, e: Expectation, analyses: Analyses = analyseTests(c)): Facts {
   const traits = CONNECTION_TRAITS[c.machine.connection];
   const facts: Facts = {
     connection: c.machine.connection,
@@ -32,6 +33,8 @@ export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observation
       seriesField: afterSwap(c.machine.connection, 'series-field').reversed,
       bothFields: afterSwap(c.machine.connection, 'both-fields').reversed,
     },
+    // Test series: finding codes for the rules, sentences for their `says` ({tests:barToBar}).
+    ...seriesFacts(analyses),
   };
   for (const [name, q] of Object.entries(e.quantities)) {
     (facts.value as Record<string, number>)[name] = q.value;

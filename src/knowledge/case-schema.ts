@@ -8,6 +8,7 @@ import { CONNECTIONS, INSULATION_CLASSES, INSULATION_SYSTEMS, TESTED_WINDINGS } 
 import { WINDING_MATERIALS } from '../model/resistance.js';
 import { describeQuantityError, DIMENSIONS, parseQuantity, type Dimension } from '../units/quantity.js';
 import { quantityPattern } from '../units/quantity-pattern.js';
+import { testsSchema } from './tests-schema.js';
 import { COOLING, DRIVES, FEEDBACK, OBSERVATIONS, OBSERVATION_NAMES, SYMPTOM_IDS, SYMPTOMS, observationValues } from './vocabulary.js';
 
 export const SAFE_ID = /^[A-Za-z0-9][A-Za-z0-9._-]{0,79}$/;
@@ -169,6 +170,7 @@ const workedCheck = z.strictObject({
   result: z.enum(CHECK_RESULTS).meta({ description: 'normal: nothing wrong where the check looks; abnormal: it shows a fault; inconclusive' }),
   readings: readingsSchema.optional().meta({ description: 'readings the check took, by the same names as the case file readings' }),
   observations: observationsSchema.optional().meta({ description: 'what the check saw, by the same names as the case file observations' }),
+  tests: testsSchema.optional().meta({ description: 'test series the check took (bar-to-bar, pole drop, runout, insulation), as the case file tests' }),
   finding: z.string().max(4000).optional().meta({ description: 'what the check found, in the words of the person who did it' }),
   /** The fitter's own word that this check found the fault: the cause it confirms. */
   confirms: safeId.optional().meta({ description: "the cause this check's finding confirms, in the fitter's judgement" }),
@@ -195,6 +197,7 @@ export const caseSchema = z
       .meta({ description: `zero or more of: ${Object.entries(SYMPTOMS).map(([k, v]) => `${k} (${v})`).join(', ')}` }),
     observations: observationsSchema.optional().meta({ description: 'what was seen, heard or checked, each by its name' }),
     readings: readingsSchema.optional().meta({ description: 'meter readings, as the meter showed them' }),
+    tests: testsSchema.optional().meta({ description: 'test series brought back from the job: bar-to-bar, pole drop, runout, insulation over time' }),
     checks: z.array(workedCheck).max(500).optional().meta({ description: 'the checks worked, in order, with their results: the troubleshooting record' }),
     outcome: outcome.optional().meta({ description: 'once solved: the confirmed cause, the fix, the readings after the repair' }),
   })

@@ -7,6 +7,7 @@ import { readdirSync } from 'node:fs';
 import type * as z from 'zod';
 import { join } from 'node:path';
 import { QUANTITY_NAMES } from '../model/quantity-names.js';
+import { TEST_FINDINGS } from '../model/series/findings.js';
 import { READING_FIELDS } from './case-schema.js';
 import { readJsonFile, validate } from './read-json.js';
 import { parseKeptFileAsIs, sealKey, type RuleSeal } from './rule-seal.js';
@@ -59,6 +60,7 @@ export const STATIC_FACTS = {
   hasSeriesField: 'boolean',
   symptoms: 'list',
   findings: 'list',
+  testFindings: 'list',
   ratio: 'quantities',
   value: 'quantities',
   measured: 'quantities',
@@ -235,6 +237,9 @@ function checkCondition(c: Condition, file: string, path: string, derived: Set<s
     const allowed = Object.keys(OBSERVATIONS[c.fact as ObservationName].values);
     const given = Array.isArray(c.value) ? c.value : [c.value];
     for (const v of given) if (typeof v !== 'string' || !allowed.includes(v)) out.push(issue(file, `${path}.value`, `${JSON.stringify(v)} is not an answer of "${c.fact}" (${allowed.join(', ')})`));
+  }
+  if (c.fact === 'testFindings' && typeof c.value === 'string' && !(TEST_FINDINGS as readonly string[]).includes(c.value)) {
+    out.push(issue(file, `${path}.value`, `"${c.value}" is not a test finding (${TEST_FINDINGS.join(', ')})`));
   }
   if (c.fact === 'symptoms' && typeof c.value === 'string' && !(SYMPTOM_IDS as string[]).includes(c.value)) {
     out.push(issue(file, `${path}.value`, `"${c.value}" is not a symptom of dc-case/1`));

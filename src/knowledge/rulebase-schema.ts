@@ -4,6 +4,7 @@
  */
 import * as z from 'zod';
 import { CONNECTIONS } from '../model/machine.js';
+import { DIALOGUE_SERIES } from '../model/series/findings.js';
 import { DRIVES, FEEDBACK } from './vocabulary.js';
 
 const id = z.string().regex(/^[a-z0-9][a-z0-9-]{0,79}$/, 'expected a lower-case id: letters, digits and "-"');
@@ -106,6 +107,8 @@ const answer = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('choice'), observation: z.string().min(1) }),
   z.strictObject({ kind: z.literal('quantity'), reading: z.string().min(1) }),
   z.strictObject({ kind: z.literal('symptoms') }),
+  /** A test series typed on one line (src/dialogue/series-answer.ts), into the case file's `tests`. */
+  z.strictObject({ kind: z.literal('series'), series: z.enum(DIALOGUE_SERIES) }),
 ]);
 
 export const questionSchema = z.strictObject({

@@ -13,6 +13,9 @@ import { READING_FIELDS, type ReadingName } from '../knowledge/case-schema.js';
 import { OBSERVATIONS, SYMPTOMS, type ObservationName } from '../knowledge/vocabulary.js';
 import type { Role, WorkEntry } from '../dialogue/work.js';
 import { clockTime } from './clock-time.js';
+import type { AssetHistory } from '../engine/asset-history.js';
+import { formatSeries } from './series-text.js';
+import { formatHistory } from './history-text.js';
 
 export interface ReportInput {
   job: CaseFile;
@@ -29,6 +32,8 @@ export interface ReportInput {
   chartFile?: string;
   /** Titles of causes not in the ranking, for checks that name them. */
   causeTitles?: ReadonlyMap<string, string>;
+  /** The asset's recorded jobs, when it has any. */
+  history?: AssetHistory | undefined;
   /** Which tool and which rules made the diagnosis. */
   producedBy?: ProducedBy;
 }
@@ -195,6 +200,7 @@ export function jobReport(r: ReportInput): string {
   if (d.isolation.beforeCheck) lines.push(`- The isolation steps above (${iso.source}). ${iso.usEquivalent}`);
   lines.push('');
 
+  lines.push(...chartSections(r));
   lines.push('## Return to service', '');
   for (const s of r.safety.returnToService) lines.push(`- [ ] ${s.says}`);
   const after = Object.entries(job.outcome?.readingsAfter ?? {}).filter(([, v]) => v !== undefined);
@@ -222,4 +228,15 @@ export function jobReport(r: ReportInput): string {
   const made = by ? `Diagnosis by dctriage ${by.version} with ${by.rules === 'built-in rules' ? 'its built-in rules' : `the rules in ${esc(by.rules)}`}${by.revision ? ` (revision ${esc(by.revision)})` : ''}. ` : '';
   lines.push('', '---', '', made + 'Names and times are recorded as they were given; dctriage does not verify them. dctriage advises; it does not make equipment safe. Local regulations, site procedures and licensed practice prevail.', '');
   return lines.join('\n');
+}
+
+/** The test series and the asset's history as the terminal draws them, in fixed-width blocks. */
+function chartSections(r: ReportInput): string[] {
+  // Text people typed may hold backticks: they must not close the block.
+  const block = (text: string) => ['```text', text.replace(/`/g, "'"), '```', ''];
+  const out: string[] = [];
+  const series = formatSeries(r.job.tests, r.diagnosis.analyses);
+  if (series) out.push('## Test series', '', ...block(series));
+  if (r.history && r.history.jobs.length > 0) out.push('## Asset history', '', ...block(formatHistory(r.history)));
+  return out;
 }

@@ -56,13 +56,14 @@ export const COMMANDS: readonly CommandSpec[] = [
   { name: '', args: '', minArgs: 0, maxArgs: 0, options: ['rules', 'cases', 'machine', 'session', 'role', 'report'], says: 'the guided dialogue (needs a terminal)' },
   { name: 'resume', args: '', minArgs: 0, maxArgs: 0, options: ['rules', 'cases', 'session', 'role', 'report'], says: 'pick up an interrupted dialogue' },
   { name: 'expect', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['json', 'rules', 'no-chart'], says: 'what a healthy machine would read, against the readings' },
-  { name: 'diagnose', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['json', 'rules', 'adaptive', 'report', 'no-chart'], says: 'ranked causes, ordered checks and isolation steps' },
+  { name: 'diagnose', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['json', 'rules', 'cases', 'adaptive', 'report', 'no-chart'], says: 'ranked causes, ordered checks and isolation steps' },
   { name: 'cases check', args: '[DIR]', minArgs: 0, maxArgs: 1, options: ['json', 'rules', 'cases', 'adaptive'], says: 'every recorded case: where its confirmed cause ranks' },
   { name: 'cases add', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['rules', 'cases'], says: 'file a solved job as a recorded case' },
   { name: 'rules draft', args: '--from-case FILE', minArgs: 0, maxArgs: 0, options: ['from-case', 'json', 'rules', 'cases'], says: 'draft a rule from a recorded case' },
   { name: 'rules check', args: '', minArgs: 0, maxArgs: 0, options: ['json', 'rules', 'cases'], says: 'review the rule folder, then run every recorded case' },
   { name: 'rules adopt', args: 'DRAFT', minArgs: 1, maxArgs: 1, options: ['force', 'rules', 'cases'], says: 'move a reviewed draft into the rule folder' },
   { name: 'review', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['close', 'rules', 'cases'], says: "a lead's review of a saved job: its report on stdout" },
+  { name: 'history', args: 'ASSET', minArgs: 1, maxArgs: 1, options: ['json', 'rules', 'cases'], says: "an asset's recorded jobs and its insulation trend" },
   { name: 'help', args: '[COMMAND]', minArgs: 0, maxArgs: 2, options: [], says: "a command's usage and options" },
 ];
 

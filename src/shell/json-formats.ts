@@ -9,4 +9,5 @@ export const JSON_FORMATS = {
   caseCheck: 'dctriage-case-check/1',
   ruleCheck: 'dctriage-rule-check/1',
   ruleDraft: 'dctriage-rule-draft/1',
+  history: 'dctriage-history/1',
 } as const;
