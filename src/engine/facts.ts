@@ -7,10 +7,11 @@ import type { CaseFile } from '../knowledge/case-schema.js';
 import { CONNECTION_TRAITS } from '../model/machine.js';
 import type { Expectation } from '../model/expected.js';
 import { afterSwap } from '../model/reversal.js';
+import { fitFacts } from '../model/fits/index.js';
 
 export type Facts = Record<string, unknown>;
 
-export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations'>, e: Expectation): Facts {
+export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations'> & { readings?: CaseFile['readings'] }, e: Expectation): Facts {
   const traits = CONNECTION_TRAITS[c.machine.connection];
   const facts: Facts = {
     connection: c.machine.connection,
@@ -32,6 +33,8 @@ export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observation
       seriesField: afterSwap(c.machine.connection, 'series-field').reversed,
       bothFields: afterSwap(c.machine.connection, 'both-fields').reversed,
     },
+    // Each fault hypothesis fitted to the readings (src/model/fits): its verdict, value and words.
+    ...fitFacts(c.machine, c.readings ?? {}),
   };
   for (const [name, q] of Object.entries(e.quantities)) {
     (facts.value as Record<string, number>)[name] = q.value;
