@@ -16,7 +16,7 @@ import { generatedFaultCases } from '../src/model/fits/generate.js';
 
 const verbose = process.argv.includes('--verbose');
 const root = new URL('..', import.meta.url).pathname;
-const loaded = loadRuleBase(join(root, 'rules'));
+const loaded = loadRuleBase(process.env.RULES_DIR ?? join(root, 'rules'));
 if (!loaded.ok) throw new Error(JSON.stringify(loaded.issues));
 const base = loaded.value;
 const engine = buildEngine(base);

@@ -79,6 +79,8 @@ const TIE_Z = 0.35;
 /** A load within this share of rated torque is within rating. */
 const LOAD_WITHIN_RATING = 1.08;
 const GRID = 64;
+/** How far a clamp meter's current reading may be off (common practice: ±2 %). */
+const CURRENT_READING_ERROR = 0.02;
 /** Poles of the machine a shorted field coil sits in (four: the usual industrial machine, common practice). */
 const POLES = 4;
 
@@ -130,12 +132,12 @@ export function predict(b: FitBasis, w: World, ia: number): Prediction {
   };
 }
 
-function residuals(b: FitBasis, r: Readings, p: Prediction): Residual[] {
+function residualsOf(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number = FIT_READINGS.speed.tolerance): Residual[] {
   const out: Residual[] = [];
   const add = (reading: FitReading, predicted: number, measured: number | undefined, scale: number) => {
     if (measured === undefined || !(scale > 0)) return;
     const share = Number.isFinite(predicted) ? (predicted - measured) / scale : 10;
-    out.push({ reading, predicted, measured, share, z: share / FIT_READINGS[reading].tolerance });
+    out.push({ reading, predicted, measured, share, z: share / (reading === 'speed' ? speedTolerance : FIT_READINGS[reading].tolerance) });
   };
   if (r.speed !== undefined && r.speed > 0) add('speed', p.speed, r.speed, r.speed);
   if (b.shuntField && p.fieldCurrent !== undefined) add('fieldCurrent', p.fieldCurrent, r.fieldCurrent, b.ratedFieldAmps!);
@@ -193,7 +195,13 @@ export function fitReadings(machine: ModelMachine, r: Readings): FitReport | und
   const ia = r.armatureCurrent;
   const neutral = neutralWorld(b, r);
   const healthyPrediction = predict(b, neutral, ia);
-  const healthyResiduals = residuals(b, r, healthyPrediction);
+  // The current is an input to every prediction: its own reading error moves the predicted speed
+  // (much on a series machine, whose flux follows it), so the speed's tolerance carries that too.
+  const moved = predict(b, neutral, ia * (1 + CURRENT_READING_ERROR)).speed;
+  const sensitivity = Number.isFinite(moved) && healthyPrediction.speed > 0 ? Math.abs(moved - healthyPrediction.speed) / healthyPrediction.speed : 0;
+  const speedTolerance = Math.hypot(FIT_READINGS.speed.tolerance, sensitivity);
+  const residuals = (p: Prediction) => residualsOf(b, r, p, speedTolerance);
+  const healthyResiduals = residuals(healthyPrediction);
   // The load on the shaft from the current at the flux the machine really has (its measured field).
   const fieldPu = b.shuntField ? (r.fieldCurrent ?? b.healthyFieldAt(r.armatureVoltage)) / b.ratedFieldAmps! : 0;
   const torquePu = (b.flux(fieldPu, ia / b.ratedAmps) * ia) / b.ratedAmps;
@@ -211,9 +219,9 @@ export function fitReadings(machine: ModelMachine, r: Readings): FitReport | und
     }
     const [lo, hi] = h.search(b, r);
     const at = (x: number) => predict(b, h.world!(x, neutral), ia);
-    const value = minimise((x) => sumSquares(residuals(b, r, at(x))), lo, hi);
+    const value = minimise((x) => sumSquares(residuals(at(x))), lo, hi);
     const prediction = at(value);
-    const rs = residuals(b, r, prediction);
+    const rs = residuals(prediction);
     // The load this fault would leave on the shaft: beyond rating, the current is not explained.
     if (prediction.torquePu > LOAD_WITHIN_RATING) {
       const share = (prediction.torquePu - LOAD_WITHIN_RATING) / LOAD_WITHIN_RATING;

@@ -12,6 +12,8 @@ import { DEFAULT_BRUSH_DROP_V } from '../families/rated-point.js';
 
 /** Series-field share of rated excitation of a generated compound machine (the model's default). */
 const COMPOUND_SERIES_SHARE = 0.2;
+/** The most a converter gives the armature, as a share of its rating. */
+const CONVERTER_CEILING = 1.05;
 /** Poles a shorted field coil sits among. */
 const POLES = 4;
 
@@ -76,7 +78,7 @@ export interface Operating {
 }
 
 /** The steady state of a machine with a fault: torque balance on a fixed supply, speed held by a converter. */
-export function steadyState(d: Design, fault: Fault, op: Operating): Readings {
+export function steadyState(d: Design, fault: Fault, op: Operating): Readings | undefined {
   const r = (d.rShare * d.volts) / d.amps;
   const vb = DEFAULT_BRUSH_DROP_V;
   const kPhi = (d.volts - d.amps * r - vb) / rpmToRadS(d.rpm);
@@ -108,6 +110,16 @@ export function steadyState(d: Design, fault: Fault, op: Operating): Readings {
     const faulty = 1 - Math.min(1, POLES * shorted);
     return ((POLES - 1) * fluxPerUnit(undefined, mmf(fieldPu)) + fluxPerUnit(undefined, mmf(fieldPu * faulty))) / POLES;
   };
+  // The first current at which the torque meets the load (a differential machine's torque peaks and falls).
+  const firstRoot = (g: (x: number) => number, hi: number): number | undefined => {
+    const steps = 4000;
+    for (let k = 0; k < steps; k++) {
+      const a = (hi * k) / steps;
+      const b = (hi * (k + 1)) / steps;
+      if (g(a) * g(b) <= 0) return bisect(g, a, b);
+    }
+    return undefined;
+  };
   const bisect = (g: (x: number) => number, lo: number, hi: number) => {
     for (let k = 0; k < 100; k++) {
       const mid = (lo + hi) / 2;
@@ -120,7 +132,8 @@ export function steadyState(d: Design, fault: Fault, op: Operating): Readings {
   if (!converter) {
     // Torque balance: kΦ·φ(Ia)·Ia = load·kΦ·Ia,rated, with the terminal voltage (and so the shunt field) depending on Ia through the cable.
     const torque = (ia: number) => phiOf(fieldAt(source - ia * cable).pu, ia) * ia - op.load * d.amps;
-    const ia = bisect(torque, 1e-6, 20 * d.amps);
+    const ia = firstRoot(torque, 20 * d.amps);
+    if (ia === undefined) return undefined;
     const terminal = source - ia * cable;
     const field = fieldAt(terminal);
     const e = terminal - ia * (r + extra) - vb;
@@ -136,14 +149,20 @@ export function steadyState(d: Design, fault: Fault, op: Operating): Readings {
   const limit = f === 'current-limit-low' ? fault.size * d.amps : 1.5 * d.amps;
   const field = fieldAt(d.volts);
   let n = op.speedRef * d.rpm;
-  let ia = bisect((x) => phiOf(field.pu, x) * x - op.load * d.amps, 1e-6, 20 * d.amps);
+  let ia = firstRoot((x) => phiOf(field.pu, x) * x - op.load * d.amps, 20 * d.amps);
+  if (ia === undefined) return undefined;
   if (ia > limit) {
     // Held at the limit, a fan-like load (torque ∝ n²) settles where the limited torque meets it.
     ia = limit;
     n *= Math.sqrt((phiOf(field.pu, ia) * ia) / (op.load * d.amps));
   }
   const phi = phiOf(field.pu, ia);
-  const volts = kPhi * phi * rpmToRadS(n) + ia * (r + extra) + vb;
+  let volts = kPhi * phi * rpmToRadS(n) + ia * (r + extra) + vb;
+  if (volts > d.volts * CONVERTER_CEILING && f !== 'armature-overvoltage') {
+    // The converter runs out of voltage: the speed falls below the reference.
+    volts = d.volts * CONVERTER_CEILING;
+    n = radSToRpm((volts - ia * (r + extra) - vb) / (kPhi * phi));
+  }
   return {
     armatureVoltage: f === 'armature-overvoltage' ? volts * fault.size : volts,
     armatureCurrent: ia,
@@ -167,7 +186,7 @@ function faultsFor(d: Design): [string, number, number][] {
   return out;
 }
 
-const DESIGNS: Design[] = [
+export const DESIGNS: Design[] = [
   { connection: 'shunt', drive: 'fixed-supply', volts: 220, amps: 24, rpm: 1500, rShare: 0.06, fieldAmps: 0.8 },
   { connection: 'shunt', drive: 'fixed-supply', volts: 440, amps: 95, rpm: 1150, rShare: 0.045, fieldAmps: 2.4 },
   { connection: 'separately-excited', drive: 'fixed-supply', volts: 230, amps: 40, rpm: 1750, rShare: 0.05, fieldVolts: 110, fieldAmps: 1.5 },
@@ -199,6 +218,7 @@ export function generatedFaultCases({ seed, count, noise = 0.02 }: { seed: numbe
     if (kind === 'overload') op.load = size;
     if (kind === 'series-motor-unloaded') op.load = size;
     if (kind === 'current-limit-low') op.load = 1;
+    if (kind === 'differential-compound') op.load = 0.2 + 0.4 * rnd();
     const fault: Fault = { cause: kind === 'overload' || kind === 'series-motor-unloaded' ? null : kind, size };
     if (kind === 'cable-drop') {
       // A cable run that drops 8–20 % of the supply at this load.
@@ -207,6 +227,11 @@ export function generatedFaultCases({ seed, count, noise = 0.02 }: { seed: numbe
       size = share;
     }
     const exact = steadyState(d, fault, op);
+    // A load the faulty machine cannot carry stalls it: no steady state to read.
+    if (!exact || !(exact.speed! > 0) || !Number.isFinite(exact.speed!)) {
+      k--;
+      continue;
+    }
     const readings: Readings = Object.fromEntries(Object.entries(exact).map(([name, x]) => [name, name === 'currentLimitSetting' ? x : noisy(x as number, rnd, noise)]));
     const cause = kind === 'cable-drop' ? 'low-supply-voltage' : kind;
     out.push({ label: `${d.connection}/${d.drive} ${kind} ${Number(size.toPrecision(3))}`, cause, size, job: { machine: machineOf(d), readings } });
