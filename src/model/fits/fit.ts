@@ -79,8 +79,8 @@ const TIE_Z = 0.35;
 /** A load within this share of rated torque is within rating. */
 const LOAD_WITHIN_RATING = 1.08;
 const GRID = 64;
-/** How far a clamp meter's current reading may be off (common practice: ±2 %). */
-const CURRENT_READING_ERROR = 0.02;
+/** How far a current or voltage reading taken on site may be off (common practice: ±2 %). */
+const READING_ERROR = 0.02;
 /** Poles of the machine a shorted field coil sits in (four: the usual industrial machine, common practice). */
 const POLES = 4;
 
@@ -197,9 +197,11 @@ export function fitReadings(machine: ModelMachine, r: Readings): FitReport | und
   const healthyPrediction = predict(b, neutral, ia);
   // The current is an input to every prediction: its own reading error moves the predicted speed
   // (much on a series machine, whose flux follows it), so the speed's tolerance carries that too.
-  const moved = predict(b, neutral, ia * (1 + CURRENT_READING_ERROR)).speed;
-  const sensitivity = Number.isFinite(moved) && healthyPrediction.speed > 0 ? Math.abs(moved - healthyPrediction.speed) / healthyPrediction.speed : 0;
-  const speedTolerance = Math.hypot(FIT_READINGS.speed.tolerance, sensitivity);
+  // On a converter the terminal voltage is an input as well, with its own reading error.
+  const sensitivity = (moved: number) => (Number.isFinite(moved) && healthyPrediction.speed > 0 ? Math.abs(moved - healthyPrediction.speed) / healthyPrediction.speed : 0);
+  const byCurrent = sensitivity(predict(b, neutral, ia * (1 + READING_ERROR)).speed);
+  const byVoltage = b.voltageFree ? sensitivity(predict(b, { ...neutral, sourceVolts: neutral.sourceVolts * (1 + READING_ERROR) }, ia).speed) : 0;
+  const speedTolerance = Math.hypot(FIT_READINGS.speed.tolerance, byCurrent, byVoltage);
   const residuals = (p: Prediction) => residualsOf(b, r, p, speedTolerance);
   const healthyResiduals = residuals(healthyPrediction);
   // The load on the shaft from the current at the flux the machine really has (its measured field).
