@@ -201,7 +201,8 @@ export function fitReadings(machine: ModelMachine, r: Readings): FitReport | und
   const sensitivity = (moved: number) => (Number.isFinite(moved) && healthyPrediction.speed > 0 ? Math.abs(moved - healthyPrediction.speed) / healthyPrediction.speed : 0);
   const byCurrent = sensitivity(predict(b, neutral, ia * (1 + READING_ERROR)).speed);
   const byVoltage = b.voltageFree ? sensitivity(predict(b, { ...neutral, sourceVolts: neutral.sourceVolts * (1 + READING_ERROR) }, ia).speed) : 0;
-  const speedTolerance = Math.hypot(FIT_READINGS.speed.tolerance, byCurrent, byVoltage);
+  // Added, not combined as squares: reading errors of one sign must not make a healthy machine a fault.
+  const speedTolerance = FIT_READINGS.speed.tolerance + byCurrent + byVoltage;
   const residuals = (p: Prediction) => residualsOf(b, r, p, speedTolerance);
   const healthyResiduals = residuals(healthyPrediction);
   // The load on the shaft from the current at the flux the machine really has (its measured field).

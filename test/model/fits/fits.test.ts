@@ -180,7 +180,7 @@ describe('each hypothesis on a recorded case, in the words a fitter reads', () =
 
   it('finds a cable drop from the supply-end and terminal voltages', () => {
     const f = says('2026-07-07-borehole-4-cable-drop.json');
-    expect(f.fitSays.cableDrop).toBe('0.727 Ω in the supply cable (a drop of 31.3 V) explains the speed, field current, terminal voltage and supply voltage within 1 %');
+    expect(f.fitSays.cableDrop).toBe('0.727 Ω in the supply cable (a drop of 31.2 V) explains the speed, field current, terminal voltage and supply voltage within 1 %');
     expect(f.fit.lowSupply!.verdict).toBe('contradicted');
   });
 
