@@ -1,7 +1,7 @@
 /**
  * Evidence in the fitter's words. A rule's `says` is a sentence with placeholders filled from
  * the job's facts: {value.fieldCurrent}, {measured.speed} (number and unit), {ratio.speed}
- * (a percentage), {obs:leads-disturbed} (the answer's words). Without `says`, the sentence is
+ * (a percentage), {obs:leads-disturbed} (the answer's words), {fit:weakField} (a fit's sentence). Without `says`, the sentence is
  * built from the rule result's condition tree: each leaf that held, with the value it saw.
  */
 import type { Expectation } from '../model/expected.js';
@@ -23,8 +23,10 @@ function withUnit(x: number, unit: string): string {
 }
 
 export function fillTemplate(template: string, facts: Facts, e: Expectation): string {
-  return template.replace(/\{(value|measured|ratio|obs|tests):?\.?([A-Za-z0-9-]+)\}/g, (whole, kind: string, name: string) => {
+  return template.replace(/\{(value|measured|ratio|obs|tests|fit):?\.?([A-Za-z0-9-]+)\}/g, (whole, kind: string, name: string) => {
     if (kind === 'tests') return (facts.testWords as Record<string, string> | undefined)?.[name] ?? 'no such test';
+    // {fit:extraResistance}: the fit's own sentence with its numbers (src/model/fits/describe.ts).
+    if (kind === 'fit') return (facts.fitSays as Record<string, string> | undefined)?.[name] ?? whole;
     if (kind === 'obs') {
       const spec = OBSERVATIONS[name as ObservationName];
       const answer = facts[name];

@@ -8,10 +8,11 @@ import { CONNECTION_TRAITS } from '../model/machine.js';
 import type { Expectation } from '../model/expected.js';
 import { afterSwap } from '../model/reversal.js';
 import { analyseTests, seriesFacts, type Analyses } from './series-analyses.js';
+import { fitFacts } from '../model/fits/index.js';
 
 export type Facts = Record<string, unknown>;
 
-export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'tests'>, e: Expectation, analyses: Analyses = analyseTests(c)): Facts {
+export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'tests'> & { readings?: CaseFile['readings'] }, e: Expectation, analyses: Analyses = analyseTests(c)): Facts {
   const traits = CONNECTION_TRAITS[c.machine.connection];
   const facts: Facts = {
     connection: c.machine.connection,
@@ -35,6 +36,8 @@ export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observation
     },
     // Test series: finding codes for the rules, sentences for their `says` ({tests:barToBar}).
     ...seriesFacts(analyses),
+    // Each fault hypothesis fitted to the readings (src/model/fits): its verdict, value and words.
+    ...fitFacts(c.machine, c.readings ?? {}),
   };
   for (const [name, q] of Object.entries(e.quantities)) {
     (facts.value as Record<string, number>)[name] = q.value;

@@ -28,7 +28,7 @@ const factRef = z.strictObject({ fact: z.string().min(1), path: z.string().regex
 
 const leaf = z.strictObject({
   fact: z.string().min(1),
-  path: z.string().regex(/^\$\.[A-Za-z0-9]+$/, 'expected a path "$.name"').optional(),
+  path: z.string().regex(/^\$\.[A-Za-z0-9]+(\.[A-Za-z0-9]+)?$/, 'expected a path "$.name" (or "$.name.field" for the fact fit)').optional(),
   operator: z.enum(OPERATORS),
   value: z.union([z.string(), z.number(), z.boolean(), z.array(z.string()), factRef]),
 });

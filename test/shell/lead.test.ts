@@ -159,6 +159,10 @@ describe('dctriage rules check', () => {
       const sym = JSON.parse(readFileSync(s, 'utf8'));
       sym.rules = sym.rules.filter((x: { cause?: string }) => x.cause !== 'field-weak');
       writeFileSync(s, JSON.stringify(sym));
+      const t = join(d, 'fits.json');
+      const fits = JSON.parse(readFileSync(t, 'utf8'));
+      fits.rules = fits.rules.filter((x: { cause?: string }) => x.cause !== 'field-weak');
+      writeFileSync(t, JSON.stringify(fits));
     });
     expect(r.code).toBe(1);
     expect(JSON.parse(r.stdout).findings).toContainEqual(expect.objectContaining({ kind: 'case-out-of-top-3', about: 'press-feed-field-weak' }));

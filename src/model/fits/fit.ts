@@ -1,0 +1,266 @@
+/**
+ * Fits every hypothesis to the readings: for each, the value of the fault's own parameter that
+ * best explains them (one-parameter least squares, each reading's residual scaled by how far a
+ * healthy machine's reading may stray), whether that value is plausible, and the residual left
+ * on every reading. Then the verdicts: which hypotheses explain all readings, which the readings
+ * contradict, and which are tied — with the reading or check that would separate them.
+ */
+import type { Readings } from '../machine.js';
+import type { ModelMachine } from '../families/context.js';
+import { radSToRpm } from '../families/context.js';
+import { fitBasis, type FitBasis } from './basis.js';
+import { HYPOTHESES, type Hypothesis, type World } from './hypotheses.js';
+
+/** The readings a fit predicts, with how far each may stray on a healthy machine (share). */
+export const FIT_READINGS = {
+  speed: { tolerance: 0.03, words: 'speed' },
+  fieldCurrent: { tolerance: 0.05, words: 'field current' },
+  armatureVoltage: { tolerance: 0.06, words: 'terminal voltage' },
+  supplyVoltage: { tolerance: 0.06, words: 'supply voltage' },
+  armatureCurrent: { tolerance: 0.1, words: 'armature current' },
+} as const;
+export type FitReading = keyof typeof FIT_READINGS;
+
+/** Verdicts a rule can test (`{ "fact": "fit", "path": "$.weakField.verdict", … }`). */
+export const FIT_VERDICTS = ['best', 'explains', 'contradicted', 'implausible', 'not-needed', 'unfit'] as const;
+export type FitVerdict = (typeof FIT_VERDICTS)[number];
+
+export interface Prediction {
+  armatureVoltage: number;
+  supplyVoltage: number;
+  fieldCurrent?: number | undefined;
+  speed: number;
+  /** Electromagnetic torque per unit of rated (kΦr·Ia,rated). */
+  torquePu: number;
+  /** Speed the same machine would run at 5 % of rated current: a check that separates hypotheses. */
+  noLoadSpeed: number;
+}
+
+export interface Residual {
+  reading: FitReading;
+  predicted: number;
+  measured: number;
+  /** (predicted − measured) over the reading's scale. */
+  share: number;
+  /** share over the reading's tolerance: |z| ≤ 1 is explained. */
+  z: number;
+}
+
+export interface HypothesisFit {
+  id: string;
+  kind: Hypothesis['kind'];
+  parameter: string;
+  unit: string;
+  value: number;
+  healthyValue: number;
+  plausible: boolean;
+  residuals: Residual[];
+  /** The largest |share| over the readings: "explains within x %". */
+  worstShare: number;
+  /** The largest |z|. */
+  worstZ: number;
+  explains: boolean;
+  verdict: FitVerdict;
+  /** The reading that disagrees most, when the verdict is contradicted. */
+  contradictedBy?: FitReading | undefined;
+  prediction?: Prediction | undefined;
+}
+
+export interface FitReport {
+  healthy: { residuals: Residual[]; worstZ: number; explains: boolean; torquePu: number };
+  hypotheses: HypothesisFit[];
+  /** Hypotheses tied as best, and the readings or checks that would tell each pair apart. */
+  ties: { a: string; b: string; separatedBy: string[] }[];
+  basis: FitBasis;
+}
+
+/** Hypotheses whose worst residual is within this many tolerances of the best are tied. */
+const TIE_Z = 0.35;
+/** A load within this share of rated torque is within rating. */
+const LOAD_WITHIN_RATING = 1.08;
+const GRID = 64;
+/** How far a current or voltage reading taken on site may be off (common practice: ±2 %). */
+const READING_ERROR = 0.02;
+/** Poles of the machine a shorted field coil sits in (four: the usual industrial machine, common practice). */
+const POLES = 4;
+
+export function neutralWorld(b: FitBasis, r: Readings): World {
+  return {
+    sourceVolts: b.voltageFree ? Math.min(r.armatureVoltage ?? b.ratedVolts, 1.06 * b.ratedVolts) : b.nominalVolts,
+    cableOhms: 0,
+    extraOhms: 0,
+    fieldFactor: 1,
+    turnsShorted: 0,
+    seriesFactor: 1,
+    fluxFactor: 1,
+  };
+}
+
+/** The machine equations under one world at armature current `ia`. */
+export function predict(b: FitBasis, w: World, ia: number): Prediction {
+  const terminal = w.sourceVolts - ia * w.cableOhms;
+  let field: number | undefined;
+  let fieldPu = 0;
+  if (b.shuntField) {
+    const supplied = b.healthyFieldAt(terminal) * w.fieldFactor;
+    // A regulator holds the current, so shorted turns cost ampere-turns; a voltage-fed field
+    // draws more current through fewer turns, so its ampere-turns barely change.
+    field = b.fieldRegulated ? supplied : supplied / Math.max(1e-6, 1 - w.turnsShorted);
+    fieldPu = field / b.ratedFieldAmps!;
+  }
+  // Shorted turns sit in one coil: that pole loses its share of the turns while the others
+  // carry the (higher) current in full, and saturation keeps them from making up the loss.
+  const faultyPoleTurns = 1 - Math.min(1, POLES * w.turnsShorted);
+  const fluxAt = (amps: number) =>
+    w.fluxFactor *
+    (w.turnsShorted === 0
+      ? b.flux(fieldPu, amps / b.ratedAmps, w.seriesFactor)
+      : ((POLES - 1) * b.flux(fieldPu, amps / b.ratedAmps, w.seriesFactor) + b.flux(fieldPu * faultyPoleTurns, amps / b.ratedAmps, w.seriesFactor)) / POLES);
+  const speedAt = (amps: number) => {
+    const phi = fluxAt(amps);
+    const e = terminal - amps * (b.circuitOhms + w.extraOhms) - (amps > 0 ? b.brushDrop : 0);
+    return phi > 1e-6 ? radSToRpm(e / (b.kPhiRated * phi)) : Number.POSITIVE_INFINITY;
+  };
+  const phi = fluxAt(ia);
+  return {
+    armatureVoltage: terminal,
+    supplyVoltage: w.sourceVolts,
+    fieldCurrent: field,
+    speed: speedAt(ia),
+    torquePu: (phi * ia) / b.ratedAmps,
+    noLoadSpeed: speedAt(0.05 * b.ratedAmps),
+  };
+}
+
+function residualsOf(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number = FIT_READINGS.speed.tolerance): Residual[] {
+  const out: Residual[] = [];
+  const add = (reading: FitReading, predicted: number, measured: number | undefined, scale: number) => {
+    if (measured === undefined || !(scale > 0)) return;
+    const share = Number.isFinite(predicted) ? (predicted - measured) / scale : 10;
+    out.push({ reading, predicted, measured, share, z: share / (reading === 'speed' ? speedTolerance : FIT_READINGS[reading].tolerance) });
+  };
+  if (r.speed !== undefined && r.speed > 0) add('speed', p.speed, r.speed, r.speed);
+  if (b.shuntField && p.fieldCurrent !== undefined) add('fieldCurrent', p.fieldCurrent, r.fieldCurrent, b.ratedFieldAmps!);
+  add('armatureVoltage', p.armatureVoltage, r.armatureVoltage, b.ratedVolts);
+  if (!b.voltageFree) add('supplyVoltage', p.supplyVoltage, r.supplyVoltage, b.ratedVolts);
+  return out;
+}
+
+const sumSquares = (rs: Residual[]) => rs.reduce((s, x) => s + x.z * x.z, 0);
+const worst = (rs: Residual[], key: 'z' | 'share') => rs.reduce((m, x) => Math.max(m, Math.abs(x[key])), 0);
+
+/** A one-parameter least-squares minimum: a grid for the bracket, then golden-section search. */
+export function minimise(f: (x: number) => number, lo: number, hi: number): number {
+  let bestK = 0;
+  let bestF = Number.POSITIVE_INFINITY;
+  for (let k = 0; k <= GRID; k++) {
+    const fx = f(lo + ((hi - lo) * k) / GRID);
+    if (fx < bestF) {
+      bestF = fx;
+      bestK = k;
+    }
+  }
+  let a = lo + ((hi - lo) * Math.max(0, bestK - 1)) / GRID;
+  let c = lo + ((hi - lo) * Math.min(GRID, bestK + 1)) / GRID;
+  const g = (Math.sqrt(5) - 1) / 2;
+  let x1 = c - g * (c - a);
+  let x2 = a + g * (c - a);
+  let f1 = f(x1);
+  let f2 = f(x2);
+  for (let k = 0; k < 60 && c - a > 1e-10 * (Math.abs(a) + Math.abs(c) + 1e-12); k++) {
+    if (f1 <= f2) {
+      c = x2;
+      x2 = x1;
+      f2 = f1;
+      x1 = c - g * (c - a);
+      f1 = f(x1);
+    } else {
+      a = x1;
+      x1 = x2;
+      f1 = f2;
+      x2 = a + g * (c - a);
+      f2 = f(x2);
+    }
+  }
+  return (a + c) / 2;
+}
+
+/**
+ * @example fitReadings(machine, { armatureVoltage: 229, armatureCurrent: 60, fieldCurrent: 1.11, speed: 1070 })
+ *   ?.hypotheses.find((h) => h.id === 'extraResistance') // { value: 0.3, verdict: 'best', … }
+ */
+export function fitReadings(machine: ModelMachine, r: Readings): FitReport | undefined {
+  const b = fitBasis(machine, r);
+  if (!b || r.speed === undefined || !(r.speed > 0) || r.armatureCurrent === undefined || r.armatureVoltage === undefined) return undefined;
+  const ia = r.armatureCurrent;
+  const neutral = neutralWorld(b, r);
+  const healthyPrediction = predict(b, neutral, ia);
+  // The current is an input to every prediction: its own reading error moves the predicted speed
+  // (much on a series machine, whose flux follows it), so the speed's tolerance carries that too.
+  // On a converter the terminal voltage is an input as well, with its own reading error.
+  const sensitivity = (moved: number) => (Number.isFinite(moved) && healthyPrediction.speed > 0 ? Math.abs(moved - healthyPrediction.speed) / healthyPrediction.speed : 0);
+  const byCurrent = sensitivity(predict(b, neutral, ia * (1 + READING_ERROR)).speed);
+  const byVoltage = b.voltageFree ? sensitivity(predict(b, { ...neutral, sourceVolts: neutral.sourceVolts * (1 + READING_ERROR) }, ia).speed) : 0;
+  // Added, not combined as squares: reading errors of one sign must not make a healthy machine a fault.
+  const speedTolerance = FIT_READINGS.speed.tolerance + byCurrent + byVoltage;
+  const residuals = (p: Prediction) => residualsOf(b, r, p, speedTolerance);
+  const healthyResiduals = residuals(healthyPrediction);
+  // The load on the shaft from the current at the flux the machine really has (its measured field).
+  const fieldPu = b.shuntField ? (r.fieldCurrent ?? b.healthyFieldAt(r.armatureVoltage)) / b.ratedFieldAmps! : 0;
+  const torquePu = (b.flux(fieldPu, ia / b.ratedAmps) * ia) / b.ratedAmps;
+  const healthy = { residuals: healthyResiduals, worstZ: worst(healthyResiduals, 'z'), explains: worst(healthyResiduals, 'z') <= 1, torquePu };
+
+  const fits = HYPOTHESES.map((h): HypothesisFit => {
+    const base = { id: h.id, kind: h.kind, parameter: h.parameter, unit: h.unit, healthyValue: h.healthy(b) };
+    if (!h.applies(b, r)) return { ...base, value: NaN, plausible: false, residuals: [], worstShare: NaN, worstZ: NaN, explains: false, verdict: 'unfit' };
+    if (h.kind === 'load') {
+      const value = h.measure!(b, r, healthy.torquePu);
+      if (value === undefined) return { ...base, value: NaN, plausible: false, residuals: [], worstShare: NaN, worstZ: NaN, explains: false, verdict: 'unfit' };
+      const plausible = h.plausible(value, b, r);
+      const verdict: FitVerdict = !healthy.explains ? 'contradicted' : plausible ? 'explains' : 'not-needed';
+      return { ...base, value, plausible, residuals: healthyResiduals, worstShare: worst(healthyResiduals, 'share'), worstZ: healthy.worstZ, explains: healthy.explains, verdict, contradictedBy: verdict === 'contradicted' ? worstReading(healthyResiduals) : undefined, prediction: healthyPrediction };
+    }
+    const [lo, hi] = h.search(b, r);
+    const at = (x: number) => predict(b, h.world!(x, neutral), ia);
+    const value = minimise((x) => sumSquares(residuals(at(x))), lo, hi);
+    const prediction = at(value);
+    const rs = residuals(prediction);
+    // The load this fault would leave on the shaft: beyond rating, the current is not explained.
+    if (prediction.torquePu > LOAD_WITHIN_RATING) {
+      const share = (prediction.torquePu - LOAD_WITHIN_RATING) / LOAD_WITHIN_RATING;
+      rs.push({ reading: 'armatureCurrent', predicted: (ia * LOAD_WITHIN_RATING) / prediction.torquePu, measured: ia, share, z: share / FIT_READINGS.armatureCurrent.tolerance });
+    }
+    const worstZ = worst(rs, 'z');
+    const explains = worstZ <= 1;
+    const plausible = h.plausible(value, b, r);
+    const verdict: FitVerdict = healthy.explains ? 'not-needed' : !plausible ? 'implausible' : explains ? 'explains' : 'contradicted';
+    return { ...base, value, plausible, residuals: rs, worstShare: worst(rs, 'share'), worstZ, explains, verdict, contradictedBy: verdict === 'contradicted' ? worstReading(rs) : undefined, prediction };
+  });
+
+  const explaining = fits.filter((f) => f.verdict === 'explains');
+  const bestZ = Math.min(...explaining.map((f) => f.worstZ));
+  for (const f of explaining) if (f.worstZ <= bestZ + TIE_Z) f.verdict = 'best';
+  const best = fits.filter((f) => f.verdict === 'best');
+  const ties: FitReport['ties'] = [];
+  for (let i = 0; i < best.length; i++) {
+    for (let j = i + 1; j < best.length; j++) ties.push({ a: best[i]!.id, b: best[j]!.id, separatedBy: separators(b, r, best[i]!, best[j]!) });
+  }
+  return { healthy, hypotheses: fits, ties, basis: b };
+}
+
+function worstReading(rs: Residual[]): FitReading | undefined {
+  return rs.reduce<Residual | undefined>((m, x) => (m === undefined || Math.abs(x.z) > Math.abs(m.z) ? x : m), undefined)?.reading;
+}
+
+/** Readings not yet taken, and the no-load speed, on which two fitted hypotheses disagree by more than their tolerance. */
+function separators(b: FitBasis, r: Readings, x: HypothesisFit, y: HypothesisFit): string[] {
+  const px = x.prediction;
+  const py = y.prediction;
+  if (!px || !py) return [];
+  const out: string[] = [];
+  const differ = (a: number | undefined, c: number | undefined, scale: number, tol: number) => a !== undefined && c !== undefined && Number.isFinite(a) && Number.isFinite(c) && Math.abs(a - c) / scale > tol;
+  if (r.fieldCurrent === undefined && b.shuntField && differ(px.fieldCurrent, py.fieldCurrent, b.ratedFieldAmps!, FIT_READINGS.fieldCurrent.tolerance)) out.push('fieldCurrent');
+  if (r.supplyVoltage === undefined && differ(px.supplyVoltage, py.supplyVoltage, b.ratedVolts, FIT_READINGS.supplyVoltage.tolerance)) out.push('supplyVoltage');
+  if (differ(px.noLoadSpeed, py.noLoadSpeed, Math.max(px.noLoadSpeed, py.noLoadSpeed), FIT_READINGS.speed.tolerance)) out.push('noLoadSpeed');
+  return out;
+}

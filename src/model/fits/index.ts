@@ -1,0 +1,54 @@
+/**
+ * The fits as the rule base sees them: per hypothesis its verdict, fitted value, worst residual
+ * (a share), whether the value is plausible and whether it explains every reading; and per
+ * hypothesis the sentence that carries the numbers. Rules read `{ "fact": "fit", "path":
+ * "$.extraResistance.verdict", "operator": "equal", "value": "best" }` and say `{fit:extraResistance}`.
+ */
+import type { Readings } from '../machine.js';
+import type { ModelMachine } from '../families/context.js';
+import { fitReadings, type FitVerdict } from './fit.js';
+import { describeFits } from './describe.js';
+import { HYPOTHESIS_IDS } from './hypotheses.js';
+
+export { fitReadings } from './fit.js';
+export { HYPOTHESIS_IDS } from './hypotheses.js';
+
+/** The fields of each hypothesis a rule can read, and the healthy machine's. */
+export const FIT_FACT_FIELDS = ['verdict', 'value', 'worstShare', 'plausible', 'explains'] as const;
+export const HEALTHY_FIT_FIELDS = ['explains', 'worstShare'] as const;
+
+export interface HypothesisFacts {
+  verdict: FitVerdict;
+  value?: number;
+  worstShare?: number;
+  plausible: boolean;
+  explains: boolean;
+}
+
+export interface FitFacts {
+  fit: Record<string, HypothesisFacts> & { healthy?: { explains: boolean; worstShare: number } };
+  fitSays: Record<string, string>;
+}
+
+const finite = (x: number) => (Number.isFinite(x) ? { value: x } : {});
+
+/** Facts for a job; every hypothesis is present ("unfit" where the readings do not allow a fit). */
+export function fitFacts(machine: ModelMachine, readings: Readings): FitFacts {
+  const report = fitReadings(machine, readings);
+  const fit: FitFacts['fit'] = {};
+  if (!report) {
+    for (const id of HYPOTHESIS_IDS) fit[id] = { verdict: 'unfit', plausible: false, explains: false };
+    return { fit, fitSays: {} };
+  }
+  for (const h of report.hypotheses) {
+    fit[h.id] = {
+      verdict: h.verdict,
+      ...finite(h.value),
+      ...(Number.isFinite(h.worstShare) ? { worstShare: h.worstShare } : {}),
+      plausible: h.plausible,
+      explains: h.explains,
+    };
+  }
+  fit.healthy = { explains: report.healthy.explains, worstShare: Math.max(0, ...report.healthy.residuals.map((r) => Math.abs(r.share))) };
+  return { fit, fitSays: describeFits(report) };
+}
