@@ -117,7 +117,8 @@ export async function draftFromCase(target: CaseFile, others: CaseFile[], base: 
   let best: { weight: number; rank: number } | undefined;
   for (const weight of WEIGHTS) {
     const trial = withDraft(base, make(weight), 'draft');
-    const d = await diagnose(target, trial, buildEngine(trial));
+    // The rules' own ranking: what the case's checks found is not what a rule is drafted from.
+    const d = await diagnose({ ...target, checks: [] }, trial, buildEngine(trial));
     const rank = d.causes.findIndex((c) => c.id === cause) + 1;
     if (rank === 1) {
       best = { weight, rank };
