@@ -83,5 +83,8 @@ for (const [what, ms, ratio, note] of rows) console.log(`${pad(what, 64)}${pad(m
 // Not timings: how often the series analysers find an inserted fault, on 500 generated series of each kind.
 console.log(`\nseries analysers on generated series (bench/series-detection.ts)\n${execFileSync(tsx, [join(root, 'bench', 'series-detection.ts'), '500'], { cwd: root, encoding: 'utf8' })}`);
 
+// Not timings: the troubleshooting loop worked by a simulated fitter on every recorded case.
+console.log(`\n${execFileSync(tsx, [join(root, 'bench', 'loop-simulation.ts')], { cwd: root, encoding: 'utf8' })}`);
+
 // The generated rule base, cases and dialogue state are only for this run.
 for (const dir of [state, big, many]) rmSync(dir, { recursive: true, force: true });
