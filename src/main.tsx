@@ -194,6 +194,7 @@ async function main(argv: string[]): Promise<number> {
       return print(await adoptDraft(args[0]!, k.value.rules, k.value.cases, base.value, !!opts.force));
     }
     case 'review': {
+      if (args[0] === '-') throw new UsageError('review takes a saved job file, not standard input: --close writes to it', 'review');
       const k = knowledge(opts, true);
       if (!k.ok) return fail(k.issues);
       const base = loadRules(k.value.rules);

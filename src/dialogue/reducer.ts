@@ -90,7 +90,9 @@ export const COMMANDS = {
 } as const;
 
 export function initialState(answers: Answer[] = [], work: WorkEntry[] = []): DialogueState {
-  return { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [], work };
+  // A session with checks worked was at the result: it reopens there, on the checks, once diagnosed.
+  const phase = work.length ? 'finishing' : answers.length ? 'asking' : 'notice';
+  return { phase, answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [], work, ...(work.length ? { endedBecause: 'the session was resumed at its checks' } : {}) };
 }
 
 /** Ends the questions: the result shows at once if the diagnosis is current, else when it comes. */

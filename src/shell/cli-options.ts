@@ -62,13 +62,13 @@ export const COMMANDS: readonly CommandSpec[] = [
   { name: 'rules draft', args: '--from-case FILE', minArgs: 0, maxArgs: 0, options: ['from-case', 'json', 'rules', 'cases'], says: 'draft a rule from a recorded case' },
   { name: 'rules check', args: '', minArgs: 0, maxArgs: 0, options: ['json', 'rules', 'cases'], says: 'review the rule folder, then run every recorded case' },
   { name: 'rules adopt', args: 'DRAFT', minArgs: 1, maxArgs: 1, options: ['force', 'rules', 'cases'], says: 'move a reviewed draft into the rule folder' },
-  { name: 'review', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['close', 'rules', 'cases'], says: "a lead's review of a saved job: its report on stdout" },
+  { name: 'review', args: 'SAVED', minArgs: 1, maxArgs: 1, options: ['close', 'rules', 'cases'], says: "a lead's review of a saved job: its report on stdout" },
   { name: 'history', args: 'ASSET', minArgs: 1, maxArgs: 1, options: ['json', 'rules', 'cases'], says: "an asset's recorded jobs and its insulation trend" },
   { name: 'help', args: '[COMMAND]', minArgs: 0, maxArgs: 2, options: [], says: "a command's usage and options" },
 ];
 
 /** What the file arguments mean, for "needs a …" messages. */
-const ARG_WORDS: Record<string, string> = { FILE: 'a case file (- reads it from standard input)', DRAFT: 'a draft file', '[DIR]': 'a cases folder', '[COMMAND]': 'a command' };
+const ARG_WORDS: Record<string, string> = { FILE: 'a case file (- reads it from standard input)', SAVED: 'a saved job file (a file, since --close writes to it)', DRAFT: 'a draft file', '[DIR]': 'a cases folder', '[COMMAND]': 'a command' };
 
 /** The commands a first word can start: "cases" → cases check, cases add. */
 const GROUPS = [...new Set(COMMANDS.map((c) => c.name.split(' ')[0]!).filter(Boolean))];

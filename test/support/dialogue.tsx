@@ -3,13 +3,13 @@ import { render } from 'ink-testing-library';
 import { buildFlow } from '../../src/dialogue/flow.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
 import type { Answer } from '../../src/dialogue/job.js';
-import type { WorkRules } from '../../src/dialogue/work.js';
+import type { WorkEntry, WorkRules } from '../../src/dialogue/work.js';
 import { Dialogue } from '../../src/ui/Dialogue.js';
 import { builtInRules } from './rules.js';
 
 export const settle = (ms = 25) => new Promise((r) => setTimeout(r, ms));
 
-export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: unknown; work?: WorkRules } = {}) {
+export function renderDialogue(opts: { initialAnswers?: Answer[]; initialWork?: WorkEntry[]; machineFile?: unknown; work?: WorkRules } = {}) {
   const base = builtInRules();
   const flow = buildFlow(base);
   const saved: Answer[][] = [];
@@ -20,6 +20,7 @@ export function renderDialogue(opts: { initialAnswers?: Answer[]; machineFile?: 
       engine={buildEngine(base)}
       safetyNotice={base.safety.notice}
       initialAnswers={opts.initialAnswers ?? []}
+      initialWork={opts.initialWork ?? []}
       onAnswers={(a) => saved.push(a)}
       onRecord={(answers, outcome) => {
         recorded.push({ answers, outcome });

@@ -183,6 +183,21 @@ describe('the dialogue', () => {
     expect(again.lastFrame()).toMatch(/Likely causes:/);
     again.unmount();
   });
+
+  it('reopens a session that had checks worked at its checks, not at a half-asked question', async () => {
+    const first = renderDialogue();
+    await openJob(first);
+    await first.type('done');
+    const answers = first.saved.at(-1)!;
+    const firstCheck = /Next: check 1, ([^[]+) \[/.exec(first.screen())![1]!.trim();
+    first.unmount();
+    const id = first.flow.base.checks.find((c) => c.title === firstCheck)!.id;
+    const again = renderDialogue({ initialAnswers: answers, initialWork: [{ check: id, kind: 'started', at: '2026-12-02T09:00:00Z', by: 'A. Fitter' }, { check: id, kind: 'done', at: '2026-12-02T09:10:00Z', by: 'A. Fitter', result: 'normal' }] });
+    await again.type('next');
+    expect(again.lastFrame()).toMatch(/Checks: 1 normal/);
+    expect(again.lastFrame()).not.toMatch(/^\? /m);
+    again.unmount();
+  });
 });
 
 describe('done before anything is known', () => {
