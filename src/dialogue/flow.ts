@@ -72,9 +72,18 @@ export function nextStep(flow: Flow, p: Progress): Next {
     !(safetyFirst && (q.source?.needsRunning || q.state === 'live-test')) &&
     !(p.supervisedOnly && q.state !== 'observe') &&
     (q.target.section !== 'readings' || readingIsUsable(p.job, q.target.name));
-  const first = flow.adaptive.find((q) => d.askFirst.has(q.id) && available(q));
-  if (first) return { kind: 'ask', question: first };
-  const choice = chooseQuestion(flow.policy, d, available);
+  // Context before detail: a question waits for the ones it follows; asked first, those come first.
+  const waiting = (q: DialogueQuestion) => (q.source?.askAfter ?? []).filter((id) => !answered.has(id));
+  const ready = (q: DialogueQuestion) => available(q) && waiting(q).length === 0;
+  const firstWanted = flow.adaptive.find((q) => d.askFirst.has(q.id) && available(q));
+  if (firstWanted) {
+    const before = waiting(firstWanted).map((id) => flow.all.get(id)).find((q): q is DialogueQuestion => q !== undefined && available(q));
+    if (before || ready(firstWanted)) return { kind: 'ask', question: before ?? firstWanted };
+  }
+  // Once the machine stands isolated, the isolated questions still worth asking come before anything live.
+  const lastAdaptive = [...p.answers].reverse().find((a) => !flow.all.get(a.questionId)?.opening);
+  const standsIsolated = lastAdaptive !== undefined && flow.all.get(lastAdaptive.questionId)?.state === 'isolated';
+  const choice = chooseQuestion(flow.policy, d, ready, standsIsolated);
   return choice ? { kind: 'ask', question: choice.question, gain: choice.gain } : { kind: 'done', why: 'no remaining question would change the order' };
 }
 

@@ -180,12 +180,14 @@ export function rankQuestions(policy: Policy, d: Diagnosis, available: (q: Dialo
     .sort((x, y) => y.gain - x.gain || compareIds(x.question.id, y.question.id));
 }
 
-export function chooseQuestion(policy: Policy, d: Diagnosis, available: (q: DialogueQuestion) => boolean): Choice | undefined {
+export function chooseQuestion(policy: Policy, d: Diagnosis, available: (q: DialogueQuestion) => boolean, standsIsolated = false): Choice | undefined {
   const ranked = rankQuestions(policy, d, available).filter((c) => c.gain >= MIN_GAIN_BITS);
   const bestNear = ranked.find((c) => c.question.state !== 'isolated');
   const bestIsolated = ranked.find((c) => c.question.state === 'isolated');
   if (!bestIsolated) return bestNear;
   if (!bestNear) return bestIsolated;
+  // Isolated now: finish what isolation can tell before energising again (no live, isolated, live, isolated).
+  if (standsIsolated) return bestIsolated;
   return bestIsolated.gain > bestNear.gain * ISOLATION_PREMIUM ? bestIsolated : bestNear;
 }
 

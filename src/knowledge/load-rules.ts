@@ -69,6 +69,9 @@ export const STATIC_FACTS = {
   fit: 'fits',
 } as const;
 
+/** Questions the dialogue asks from the case file's own fields, which a rule-folder question may follow. */
+const MACHINE_QUESTION_IDS = new Set(['connection', 'drive', 'feedback', 'cooling', 'symptoms']);
+
 /** The swaps the reversal model answers for (facts `swapReverses` with a path "$.supply"…). */
 export const SWAP_FACT_PATHS = ['supply', 'armature', 'shuntField', 'seriesField', 'bothFields'] as const;
 
@@ -211,6 +214,9 @@ export function crossCheck(base: RuleBase): Issue[] {
     if (q.answer.kind === 'quantity' && !(q.answer.reading in READING_FIELDS)) issues.push(issue(f('questions.json'), `${where}.answer.reading`, `"${q.answer.reading}" is not a reading of dc-case/1`));
     if (q.askWhen) issues.push(...checkCondition(q.askWhen, f('questions.json'), `${where}.askWhen`, derived, base.conditions));
     if (q.askFirstWhen) issues.push(...checkCondition(q.askFirstWhen, f('questions.json'), `${where}.askFirstWhen`, derived, base.conditions));
+    q.askAfter?.forEach((after, j) => {
+      if (!base.questions.some((x) => x.id === after) && !MACHINE_QUESTION_IDS.has(after)) issues.push(issue(f('questions.json'), `${where}.askAfter[${j}]`, `"${after}" is not a question`));
+    });
   });
   const cycle = findDeriveCycle(base);
   if (cycle) issues.push({ code: 'cycle', file: cycle.file, path: cycle.at, message: `derived facts depend on each other in a cycle: ${cycle.path.join(' → ')}` });

@@ -122,6 +122,8 @@ export const questionSchema = z.strictObject({
   askFirstWhen: conditionSchema.optional(),
   /** Answering needs the machine running: not asked after a fault trip or a runaway warning. */
   needsRunning: z.boolean().optional(),
+  /** Context before detail: asked only once these questions are answered (each asked first if need be). */
+  askAfter: z.array(id).min(1).optional(),
 });
 export const questionsFile = z.strictObject({ questions: z.array(questionSchema).min(1) });
 

@@ -119,3 +119,20 @@ describe('the troubleshooting loop in the dialogue', () => {
     d.unmount();
   });
 });
+
+describe('context before detail', () => {
+  it('asks whether any work was done before which terminations were re-made', async () => {
+    const d = renderDialogue();
+    await openJob(d, 'running', '1'); // runs the wrong way: the terminations matter at once
+    const asked = (d.lastFrame() ?? '').split('\n').find((l) => l.startsWith('? ')) ?? '';
+    expect(asked).toContain('Has any work been done');
+    await d.type('rewired');
+    const next: string[] = [];
+    for (let k = 0; k < 3; k++) {
+      next.push((d.lastFrame() ?? '').split('\n').find((l) => l.startsWith('? ')) ?? '');
+      await d.type('');
+    }
+    expect(next.some((q) => q.includes('Which terminations were disconnected and re-made'))).toBe(true);
+    d.unmount();
+  });
+});
