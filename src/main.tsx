@@ -8,7 +8,7 @@ import { computeExpectations } from './model/expected.js';
 import { loadCaseFile, modelInput } from './knowledge/load-case.js';
 import { loadRuleBase, type RuleBase } from './knowledge/load-rules.js';
 import { readRuleSeal, type RuleSeal } from './knowledge/rule-seal.js';
-import { formatIssues, ok, type Issue, type Result } from './knowledge/result.js';
+import { exitCodeOf, formatIssues, ok, type Issue, type Result } from './knowledge/result.js';
 import { readJson, readValidated, validate } from './knowledge/read-json.js';
 import { caseSchema, machineSchema } from './knowledge/case-schema.js';
 import { safetyFile } from './knowledge/rulebase-schema.js';
@@ -22,9 +22,9 @@ import { outcomeOf } from './dialogue/outcome.js';
 import { ROLES, type Role } from './dialogue/work.js';
 import type { DialogueState } from './dialogue/reducer.js';
 import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Session } from './shell/session.js';
-import { writeNewFile } from './shell/safe-write.js';
+import { WriteFailed, writeNewFile, writeProblem } from './shell/safe-write.js';
 import { fileCase } from './shell/file-case.js';
-import { writeReport } from './shell/write-report.js';
+import { ReportRefused, writeReport, type ReportTarget } from './shell/write-report.js';
 import { chartText } from './shell/chart-text.js';
 import { readSettings, resolveKnowledge } from './shell/settings.js';
 import { formatExpectation } from './shell/format-expect.js';
@@ -77,7 +77,7 @@ class UsageError extends Error {}
 
 function fail(issues: Issue[]): number {
   process.stderr.write(formatIssues(issues) + '\n');
-  return 2;
+  return exitCodeOf(issues);
 }
 
 function out(text: string): void {
@@ -130,10 +130,10 @@ async function main(argv: string[]): Promise<number> {
       }
       if (opts.report !== undefined) {
         try {
-          const where = await writeReport(opts.report, { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd());
+          const where = await writeReport(opts.report, { job, raw: raw as Record<string, unknown>, diagnosis: d, safety: base.safety, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd(), { force: opts.force, inputs: [rest[0]] });
           process.stderr.write(`Job report written to ${where}\n`);
         } catch (e) {
-          return fail([{ code: 'unreadable', file: opts.report, path: '', message: `could not write the report: ${(e as Error).message}` }]);
+          return fail([reportIssue(opts.report, e)]);
         }
       }
       return 0;
@@ -235,7 +235,7 @@ function print(o: Outcome): number {
 /** The interactive dialogue; Ink is loaded only here. */
 async function dialogue(
   resume: boolean,
-  opts: { rules?: string | undefined; cases?: string | undefined; machine?: string | undefined; session?: string | undefined; report?: string | undefined; role?: string | undefined },
+  opts: { rules?: string | undefined; cases?: string | undefined; machine?: string | undefined; session?: string | undefined; report?: string | undefined; role?: string | undefined; force?: boolean | undefined },
 ): Promise<number> {
   if (!process.stdin.isTTY || !process.stdout.isTTY) {
     process.stderr.write('dctriage: the dialogue needs a terminal. For a job in a file, run: dctriage diagnose FILE\n');
@@ -286,7 +286,7 @@ async function dialogue(
         chart: (job) => chartText({ machine: job.machine, readings: job.readings }, process.stdout.columns ?? 80, color),
         onAnswers: (answers, work) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work }),
         onSave: (answers, outcome) => saveJob({ ...jobFromAnswers(answers, machineFile), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
-        onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role),
+        onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role, { force: opts.force, inputs: [sessionFile, opts.machine] }),
         onRecord: (answers, outcome) => recordJob({ ...jobFromAnswers(answers, machineFile), outcome: outcomeOf(outcome, today()) }, base.value, opts),
       },
     };
@@ -304,7 +304,7 @@ function saveJob(draft: unknown): string {
     const w = writeNewFile(process.cwd(), stem, '.json', JSON.stringify(draft, null, 2) + '\n');
     return `Saved the job as ${w.file}`;
   } catch (e) {
-    return `Could not save the job in ${process.cwd()}: ${(e as Error).message}. The session is still kept; try from a folder you can write to.`;
+    return `Could not save the job in ${process.cwd()}: ${writeProblem(e)}. The session is still kept; try from a folder you can write to.`;
   }
 }
 
@@ -316,16 +316,17 @@ const terminalWidth = () => process.stdout.columns ?? 80;
 const useColor = () => !process.env.NO_COLOR && process.stdout.isTTY === true;
 
 /** The job report from the dialogue as it stands: the last result shown and the work done since. */
-async function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role): Promise<string> {
+async function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role, target: ReportTarget): Promise<string> {
   const draft = jobFromAnswers(state.answers, machineFile);
   const parsed = parseDraft(draft);
   const result = [...state.log].reverse().find((e) => e.kind === 'result');
   if (!parsed.ok || !result || result.kind !== 'result') return 'No report yet: the result is not on screen.';
   try {
-    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result.diagnosis, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd());
+    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result.diagnosis, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString(), timeZone: localTimeZone() }, process.cwd(), target);
     return `Job report written to ${where}`;
   } catch (e) {
-    return `Could not write the report: ${(e as Error).message}. The session is kept.`;
+    const i = reportIssue(path ?? process.cwd(), e);
+    return `Could not write the report: ${i.file}: ${i.message}. The session is kept.`;
   }
 }
 
@@ -341,6 +342,12 @@ function recordJob(draft: Record<string, unknown>, base: RuleBase, opts: { rules
   return filed.ok ? `Recorded the job as ${filed.value.file}` : `Not recorded: ${formatIssues(filed.issues)}. The session is kept; type save to keep the job here instead.`;
 }
 
+
+/** Why the report was not written: refused (bad input, exit 2) or the write failed (exit 74). */
+function reportIssue(file: string, e: unknown): Issue {
+  if (e instanceof ReportRefused) return { code: 'invalid', file: e.file, path: '', message: `not writing the report there: it ${e.reason}` };
+  return { code: 'unwritable', file: e instanceof WriteFailed ? e.file : file, path: '', message: `could not write the report: ${writeProblem(e)}` };
+}
 
 function causeIdsOf(base: RuleBase): Set<string> {
   return new Set(base.causes.map((c) => c.id));

@@ -7,7 +7,7 @@ import { caseSchema, SAFE_ID, type CaseFile } from '../knowledge/case-schema.js'
 import { stableJson } from '../knowledge/canonical.js';
 import { readJson } from '../knowledge/read-json.js';
 import { failed, ok, type Result } from '../knowledge/result.js';
-import { writeNewFile, type WriteOptions } from './safe-write.js';
+import { writeNewFile, writeProblem, type WriteOptions } from './safe-write.js';
 
 export interface Filed {
   file: string;
@@ -46,8 +46,6 @@ export function fileCase(raw: Record<string, unknown>, parsed: CaseFile, dir: st
     const id = idFor(w.suffix);
     return ok({ file: w.file, id, ...(id !== wanted ? { requestedId: wanted } : {}) });
   } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'EACCES' || code === 'EROFS' ? 'the folder is not writable' : (e as Error).message;
-    return failed({ code: 'unreadable', file: dir, path: '', message: `could not write the case: ${why}` });
+    return failed({ code: 'unwritable', file: dir, path: '', message: `could not write the case: ${writeProblem(e)}` });
   }
 }

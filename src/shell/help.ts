@@ -28,6 +28,7 @@ Options:
   --machine FILE  dialogue: take the machine from this file (a machine or a case file)
   --session FILE  dialogue: keep the session here
   --report FILE   dialogue, diagnose: write the job report (Markdown, or HTML for FILE.html)
+                  to a new file; --force replaces an existing one
   --role ROLE     dialogue: fitter, apprentice (checks beyond looking need a supervisor) or lead
   --no-chart      expect, diagnose: leave out the speed–current chart
 

@@ -9,7 +9,7 @@ import { stableJson } from '../knowledge/canonical.js';
 import { loadCase, loadCaseFile } from '../knowledge/load-case.js';
 import { crossCheck, loadRuleBase, type RuleBase } from '../knowledge/load-rules.js';
 import { readValidated } from '../knowledge/read-json.js';
-import { formatIssues, type Issue } from '../knowledge/result.js';
+import { exitCodeOf, formatIssues, type Issue } from '../knowledge/result.js';
 import { causesFile, checksFile, draftFile, ruleFile } from '../knowledge/rulebase-schema.js';
 import { checkCases, type CaseCheckReport } from '../engine/check-cases.js';
 import { reviewRuleBase, type RuleFinding } from '../engine/check-rules.js';
@@ -18,7 +18,7 @@ import { fileCase } from './file-case.js';
 import { diagnose } from '../engine/diagnose.js';
 import { buildEngine } from '../engine/run-rules.js';
 import { jobReport } from '../report/job-report.js';
-import { replaceFile, writeNewFile } from './safe-write.js';
+import { replaceFile, stageFile, writeNewFile, writeProblem, type Staged } from './safe-write.js';
 
 export interface Outcome {
   code: number;
@@ -26,7 +26,7 @@ export interface Outcome {
   err?: string;
 }
 
-const bad = (issues: Issue[]): Outcome => ({ code: 2, err: formatIssues(issues) });
+const bad = (issues: Issue[]): Outcome => ({ code: exitCodeOf(issues), err: formatIssues(issues) });
 /** A path as the lead would type it: relative when it is under the working folder. */
 const shown = (file: string) => {
   const r = relative(process.cwd(), file);
@@ -59,7 +59,7 @@ export async function reviewJob(file: string, base: RuleBase, closeBy: string | 
   try {
     replaceFile(file, stableJson({ ...raw, job: { ...raw.job, closedBy: closeBy, closedAt: now } }, caseSchema));
   } catch (e) {
-    return bad([{ code: 'unreadable', file, path: '', message: `could not mark the job closed: ${(e as Error).message}` }]);
+    return bad([{ code: 'unwritable', file, path: '', message: `could not mark the job closed: ${writeProblem(e)}; the file is as it was` }]);
   }
   return { code: 0, out: `${text}\nClosed by ${closeBy} at ${now}; written to ${file}.` };
 }
@@ -107,7 +107,7 @@ export async function draftRule(caseFile: string, rulesDir: string, casesDir: st
     mkdirSync(drafts, { recursive: true });
     written = writeNewFile(drafts, draft.name, '.json', stableJson(draft.file, draftFile)).file;
   } catch (e) {
-    return bad([{ code: 'unreadable', file: drafts, path: '', message: `could not write the draft: ${(e as Error).message}` }]);
+    return bad([{ code: 'unwritable', file: drafts, path: '', message: `could not write the draft: ${writeProblem(e)}` }]);
   }
   const before = await checkCases(recorded.files, base);
   const after = await checkCases(recorded.files, withDraft(base, draft.file, written));
@@ -168,17 +168,37 @@ export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: 
   const dropped = rankChanges(before.value, after.value).filter((c) => c.droppedOut);
   const broke = dropped.map((c) => `  ${c.id} (${c.expected}): rank ${c.before} → ${c.after || 'absent'}`);
   if (dropped.length && !force) return { code: 1, err: [`Not adopted: ${dropped.length} recorded case(s) would leave the top 3:`, ...broke, 'Review the draft, or adopt with --force.'].join('\n') };
+  // Catalogue changes are written completely before anything is published, and the draft is
+  // removed only once every file is in place: a failure leaves the folder and the draft as they were.
+  const { causes, checks, ...rules } = draft;
+  const staged: Staged[] = [];
+  let ruleWritten: string | undefined;
   try {
-    const { causes, checks, ...rules } = draft;
-    writeNewFile(rulesDir, basename(draftPath, '.json'), '.json', stableJson(rules, ruleFile));
-    if (causes?.length) replaceFile(join(rulesDir, 'causes.json'), stableJson({ causes: [...base.causes, ...causes] }, causesFile));
-    if (checks?.length) replaceFile(join(rulesDir, 'checks.json'), stableJson({ checks: [...base.checks, ...checks] }, checksFile));
+    // checks.json first: a cause names its checks, so new checks may stand before the causes that use them.
+    if (checks?.length) staged.push(stageFile(join(rulesDir, 'checks.json'), stableJson({ checks: [...base.checks, ...checks] }, checksFile)));
+    if (causes?.length) staged.push(stageFile(join(rulesDir, 'causes.json'), stableJson({ causes: [...base.causes, ...causes] }, causesFile)));
+    ruleWritten = writeNewFile(rulesDir, basename(draftPath, '.json'), '.json', stableJson(rules, ruleFile)).file;
+    while (staged.length) staged[0]!.publish(), staged.shift();
+  } catch (e) {
+    staged.forEach((s) => s.abort());
+    if (ruleWritten) removeQuietly(ruleWritten);
+    return bad([{ code: 'unwritable', file: rulesDir, path: '', message: `could not adopt the draft: ${writeProblem(e)}; the rule folder and the draft are as they were` }]);
+  }
+  try {
     unlinkSync(draftPath);
   } catch (e) {
-    return bad([{ code: 'unreadable', file: rulesDir, path: '', message: `could not adopt the draft: ${(e as Error).message}` }]);
+    return { code: 0, out: `Adopted ${basename(draftPath)} into ${rulesDir}, but the draft could not be removed (${writeProblem(e)}): remove it by hand.` };
   }
   const lines = [`Adopted ${basename(draftPath)} into ${rulesDir}.`];
   if (dropped.length) lines.push(`Adopted with --force; these recorded cases left their top 3:`, ...broke);
   return { code: 0, out: lines.join('\n') };
 }
 
+
+function removeQuietly(file: string): void {
+  try {
+    unlinkSync(file);
+  } catch {
+    // already gone
+  }
+}

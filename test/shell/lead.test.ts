@@ -84,7 +84,7 @@ describe('dctriage cases add', () => {
   it('says clearly when the cases folder cannot be written', () => {
     // /sys refuses new files even to root, unlike a chmod-ed folder.
     const r = runCli(['cases', 'add', demo, '--cases', '/sys', '--rules', copyOfRules()]);
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(74);
     expect(r.stderr).toMatch(/\/sys: could not write the case/);
   });
 });
