@@ -178,7 +178,10 @@ export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: 
     if (checks?.length) staged.push(stageFile(join(rulesDir, 'checks.json'), stableJson({ checks: [...base.checks, ...checks] }, checksFile)));
     if (causes?.length) staged.push(stageFile(join(rulesDir, 'causes.json'), stableJson({ causes: [...base.causes, ...causes] }, causesFile)));
     ruleWritten = writeNewFile(rulesDir, basename(draftPath, '.json'), '.json', stableJson(rules, ruleFile)).file;
-    while (staged.length) staged[0]!.publish(), staged.shift();
+    while (staged.length) {
+      staged[0]!.publish();
+      staged.shift();
+    }
   } catch (e) {
     staged.forEach((s) => s.abort());
     if (ruleWritten) removeQuietly(ruleWritten);
