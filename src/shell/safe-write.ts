@@ -108,7 +108,7 @@ export function stageFile(file: string, text: string, opts: IoOptions & { mode?:
         } else renameSync(tmp, file);
       } catch (e) {
         removeQuietly(tmp);
-        throw failure(file, (e as NodeJS.ErrnoException).code === 'EEXIST' ? new WriteFailed(file, 'a file of that name appeared meanwhile; it was left as it was') : e);
+        throw failure(file, (e as NodeJS.ErrnoException).code === 'EEXIST' ? new WriteFailed(file, 'a file of that name appeared meanwhile; it was left as it was', 'EEXIST') : e);
       }
     },
     abort: () => removeQuietly(tmp),
