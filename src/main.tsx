@@ -17,11 +17,12 @@ import { buildEngine, RuleCycleError } from './engine/run-rules.js';
 import { checkCases, type CaseRunner } from './engine/check-cases.js';
 import { buildFlow, type Flow } from './dialogue/flow.js';
 import { replayCase } from './dialogue/replay.js';
-import { jobFromAnswers, parseDraft, type Answer } from './dialogue/job.js';
+import { jobFromAnswers, parseDraft } from './dialogue/job.js';
+import { oneLine } from './units/quote.js';
 import { outcomeOf } from './dialogue/outcome.js';
 import { ROLES, type Role } from './dialogue/work.js';
 import type { DialogueState } from './dialogue/reducer.js';
-import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Session } from './shell/session.js';
+import { defaultSessionFile, keepAside, openSession, restoreSession, writeSession, type Restored, type Session } from './shell/session.js';
 import { WriteFailed, writeNewFile, writeProblem } from './shell/safe-write.js';
 import { fileCase } from './shell/file-case.js';
 import { ReportRefused, writeReport, type ReportTarget } from './shell/write-report.js';
@@ -242,16 +243,23 @@ async function dialogue(
     return 2;
   }
   const sessionFile = opts.session ?? defaultSessionFile();
-  let rulesDir = opts.rules ?? install.rules;
-  let machineFile: unknown;
-  let saved: Session | undefined;
-  if (resume) {
-    const s = readSession(sessionFile);
-    if (!s.ok) return fail(s.issues);
-    saved = s.value;
-    rulesDir = opts.rules ?? s.value.rules;
-    machineFile = s.value.machineFile;
-  } else if (opts.machine) {
+  // Before the first question: the session can be written, and no other dialogue holds it.
+  const opened = openSession(sessionFile, resume);
+  if (!opened.ok) return fail(opened.issues);
+  const { lock, existing } = opened.value;
+  process.once('exit', () => lock.release());
+  try {
+    return await runSession(sessionFile, opened.value.saved, existing, opened.value.notes, opts);
+  } finally {
+    lock.release();
+  }
+}
+
+async function runSession(sessionFile: string, resumed: Session | undefined, existing: Session | undefined, notes: string[], opts: Parameters<typeof dialogue>[1]): Promise<number> {
+  let saved = resumed;
+  let rulesDir = opts.rules ?? saved?.rules ?? install.rules;
+  let machineFile: unknown = saved?.machineFile;
+  if (!saved && opts.machine) {
     const m = readMachineFile(opts.machine);
     if (!m.ok) return fail(m.issues);
     machineFile = m.value;
@@ -263,38 +271,70 @@ async function dialogue(
   // The notice is all the first frame needs; the rest of the rule base loads behind it.
   const safety = readValidated(join(rulesDir, 'safety.json'), safetyFile);
   if (!safety.ok) return fail(safety.issues);
+  for (const n of notes) process.stderr.write(oneLine(n, 800) + '\n');
   const color = !process.env.NO_COLOR;
-  const prepare = (): Prepared => {
+  const prepare = (choice?: 'resume' | 'new'): Prepared => {
+    let note: string | undefined;
+    if (existing && choice === 'resume') {
+      saved = existing;
+      rulesDir = opts.rules ?? existing.rules;
+      machineFile = existing.machineFile;
+    } else if (existing && choice === 'new') {
+      try {
+        note = `The earlier session is kept as ${keepAside(sessionFile, 'kept')}; a new job starts.`;
+      } catch (e) {
+        return { ok: false, message: `${sessionFile}: the earlier session could not be kept aside (${writeProblem(e)}), so it was left as it was; move it away, or start with --session FILE` };
+      }
+    }
     const base = loadRules(rulesDir);
     if (!base.ok) return { ok: false, message: formatIssues(base.issues) };
     const flow = buildFlow(base.value);
-    let initialAnswers: Answer[] = [];
+    let restored: Restored = { answers: [], progress: {} };
     if (saved) {
-      const a = sessionAnswers(sessionFile, saved, flow);
-      if (!a.ok) return { ok: false, message: formatIssues(a.issues) };
-      initialAnswers = a.value;
+      const r = restoreSession(sessionFile, saved, flow);
+      if (!r.ok) return { ok: false, message: `${formatIssues(r.issues)}\n${sessionFile}: ${keptAsideSaying(sessionFile)}` };
+      restored = r.value;
     }
     return {
       ok: true,
+      ...(note ? { note } : {}),
       props: {
         ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true } },
         engine: buildEngine(base.value),
         safetyNotice: base.value.safety.notice,
-        initialAnswers,
+        initialAnswers: restored.answers,
         initialWork: saved?.work ?? [],
+        initialProgress: restored.progress,
         color,
         chart: (job) => chartText({ machine: job.machine, readings: job.readings }, process.stdout.columns ?? 80, color),
-        onAnswers: (answers, work) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work }),
+        onAnswers: (answers, work, progress) => {
+          try {
+            writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work, progress });
+            return undefined;
+          } catch (e) {
+            return `The session could not be saved (${writeProblem(e)}): the last answers are not kept if this stops. Type save once the result is shown.`;
+          }
+        },
         onSave: (answers, outcome) => saveJob({ ...jobFromAnswers(answers, machineFile), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
         onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role, { force: opts.force, inputs: [sessionFile, opts.machine] }),
         onRecord: (answers, outcome) => recordJob({ ...jobFromAnswers(answers, machineFile), outcome: outcomeOf(outcome, today()) }, base.value, opts),
       },
     };
   };
+  const ask = existing ? `A job is kept in the session ${sessionFile} (${existing.answers.length} answers, saved ${existing.savedAt}). Type resume to go on with it, or new to start a new job (the earlier one is kept aside).` : undefined;
   const { runDialogue } = await install.loadScreens();
-  const ended = await runDialogue({ notice: safety.value.notice, color, prepare });
+  const ended = await runDialogue({ notice: safety.value.notice, color, prepare, ...(ask ? { ask } : {}) });
   if (ended.message) process.stderr.write(ended.message + '\n');
   return ended.code;
+}
+
+/** A session whose values are wrong is moved aside; the words say where. */
+function keptAsideSaying(file: string): string {
+  try {
+    return `this session cannot be resumed, so it was kept as ${keepAside(file, 'unreadable')} and nothing in it is lost; run dctriage to start a new job`;
+  } catch (e) {
+    return `this session cannot be resumed, and could not be kept aside (${writeProblem(e)}): move it away by hand`;
+  }
 }
 
 /** Writes the job beside the fitter as a dc-case/1 file that never replaces another. */

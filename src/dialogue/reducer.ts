@@ -47,6 +47,30 @@ export interface DialogueState {
   pendingWork?: { kind: WorkEntry['kind']; check: CheckResult; got: Partial<Record<WorkPrompt['id'], string>>; firstIsolated: boolean } | undefined;
   /** Said once with the next note. */
   notice?: string | undefined;
+  /** From a resumed session: the check prompts and the outcome answered so far, put back once the result is on screen. */
+  restore?: SavedProgress | undefined;
+}
+
+/**
+ * What a session keeps besides the answers and the checks worked: whether the questions had
+ * ended, a check's prompts answered so far (the isolation record among them) and the outcome
+ * being recorded, so that a kill at any prompt loses no answer.
+ */
+export interface SavedProgress {
+  endedBecause?: string | undefined;
+  pendingWork?: { kind: WorkEntry['kind']; check: string; got: Partial<Record<WorkPrompt['id'], string>>; firstIsolated: boolean } | undefined;
+  outcome?: Answer[] | undefined;
+}
+
+export function progressOf(state: DialogueState): SavedProgress {
+  const p = state.pendingWork;
+  // Until a resumed result is back on screen, what it will restore is still the progress.
+  if (state.restore) return state.restore;
+  return {
+    ...(state.phase === 'result' || state.phase === 'recording' || state.phase === 'finishing' ? { endedBecause: state.endedBecause } : {}),
+    ...(p ? { pendingWork: { kind: p.kind, check: p.check.id, got: p.got, firstIsolated: p.firstIsolated } } : {}),
+    ...(state.phase === 'recording' ? { outcome: state.outcome } : {}),
+  };
 }
 
 export type DialogueEvent =
@@ -77,15 +101,29 @@ export const COMMANDS = {
   help: 'these commands',
 } as const;
 
-export function initialState(answers: Answer[] = [], work: WorkEntry[] = []): DialogueState {
-  return { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [], work };
+export function initialState(answers: Answer[] = [], work: WorkEntry[] = [], progress: SavedProgress = {}): DialogueState {
+  const state: DialogueState = { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [], work };
+  // The questions had ended: the result comes back with the first diagnosis, and with it the prompts left open.
+  if (answers.length && progress.endedBecause !== undefined) return { ...state, phase: 'finishing', endedBecause: progress.endedBecause, restore: progress };
+  return state;
 }
 
 /** Ends the questions: the result shows at once if the diagnosis is current, else when it comes. */
 function finish(state: DialogueState, because: string): DialogueState {
   const d = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
   if (!d) return { ...state, phase: 'finishing', endedBecause: because };
-  return { ...state, phase: 'result', endedBecause: because, log: [...state.log, { kind: 'result', diagnosis: d, because }] };
+  const shown: DialogueState = { ...state, phase: 'result', endedBecause: because, restore: undefined, log: [...state.log, { kind: 'result', diagnosis: d, because }] };
+  return restoreProgress(shown, state.restore);
+}
+
+/** Puts back the check prompts or the outcome a resumed session had open. */
+function restoreProgress(state: DialogueState, saved: SavedProgress | undefined): DialogueState {
+  if (!saved) return state;
+  const p = saved.pendingWork;
+  const check = p ? resultChecks(state).find((c) => c.id === p.check) : undefined;
+  if (p && check) return { ...state, pendingWork: { kind: p.kind, check, got: p.got, firstIsolated: p.firstIsolated } };
+  if (saved.outcome?.length) return { ...state, phase: 'recording', outcome: saved.outcome };
+  return state;
 }
 
 export function draftOf(state: DialogueState, ctx: DialogueContext) {
@@ -157,7 +195,24 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   const parsed = parseAnswer(step.question, text);
   if (!parsed.ok) return { ...base, error: parsed.reason };
   const answer: Answer = { questionId: step.question.id, target: step.question.target, value: parsed.value, shown: parsed.shown, at };
+  const problem = newProblem(state.answers, [...state.answers, answer], ctx);
+  if (problem) return { ...base, error: `not taken: ${problem}` };
   return withAnswers({ ...base, log: [...state.log, { kind: 'answer', answer }] }, [...state.answers, answer]);
+}
+
+/**
+ * Why an answer would make the job one the engine cannot read (a zero rated voltage, say), when the
+ * job could be read before it: taken, it would leave the dialogue waiting for a diagnosis that never comes.
+ */
+function newProblem(before: Answer[], after: Answer[], ctx: DialogueContext): string | undefined {
+  const unreadable = (answers: Answer[]) => {
+    const draft = jobFromAnswers(answers, ctx.machineFile);
+    if (draft.machine.connection === undefined) return undefined;
+    const parsed = parseDraft(draft);
+    return parsed.ok ? undefined : parsed.reason;
+  };
+  const now = unreadable(after);
+  return now && !unreadable(before) ? now : undefined;
 }
 
 const DEFAULT_WORK_RULES: WorkRules = { role: 'fitter', apprenticesMayTestLive: true };

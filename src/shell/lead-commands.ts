@@ -2,7 +2,7 @@
  * The workshop lead's commands: file a case, draft a rule from it, review a rule folder, adopt
  * a draft. Each returns what to print and the exit code; the CLI prints.
  */
-import { mkdirSync, readdirSync, unlinkSync } from 'node:fs';
+import { readdirSync, unlinkSync } from 'node:fs';
 import { basename, isAbsolute, join, relative } from 'node:path';
 import { caseSchema, type CaseFile } from '../knowledge/case-schema.js';
 import { stableJson } from '../knowledge/canonical.js';
@@ -18,7 +18,7 @@ import { fileCase } from './file-case.js';
 import { diagnose } from '../engine/diagnose.js';
 import { buildEngine } from '../engine/run-rules.js';
 import { jobReport } from '../report/job-report.js';
-import { replaceFile, stageFile, writeNewFile, writeProblem, type Staged } from './safe-write.js';
+import { makeFolder, replaceFile, stageFile, writeNewFile, writeProblem, type Staged } from './safe-write.js';
 
 export interface Outcome {
   code: number;
@@ -104,7 +104,7 @@ export async function draftRule(caseFile: string, rulesDir: string, casesDir: st
   const drafts = join(rulesDir, 'drafts');
   let written: string;
   try {
-    mkdirSync(drafts, { recursive: true });
+    makeFolder(drafts);
     written = writeNewFile(drafts, draft.name, '.json', stableJson(draft.file, draftFile)).file;
   } catch (e) {
     return bad([{ code: 'unwritable', file: drafts, path: '', message: `could not write the draft: ${writeProblem(e)}` }]);

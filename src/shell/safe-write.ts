@@ -7,8 +7,8 @@
  * `createFile` takes one exact new name. On any failure the temporary file is removed, nothing
  * is published, the previous file is left as it was, and a `WriteFailed` says why.
  */
-import { closeSync, fsyncSync, linkSync, openSync, renameSync, unlinkSync, writeSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
+import { closeSync, existsSync, fsyncSync, linkSync, mkdirSync, openSync, renameSync, unlinkSync, writeSync } from 'node:fs';
+import { basename, dirname, join, resolve } from 'node:path';
 
 /** fs.writeSync's shape for a buffer: returns how many bytes went in. Replaceable so tests can fill the disk. */
 export type WriteBytes = (fd: number, buffer: Uint8Array, offset: number, length: number) => number;
@@ -155,4 +155,17 @@ export function writeNewFile(dir: string, stem: string, ext: string, content: st
     }
   }
   throw new WriteFailed(join(dir, `${stem}${ext}`), `no free name after ${maxTries} tries`);
+}
+
+/**
+ * Makes a folder and any missing parents, one level at a time. Node's own recursive mkdir loops
+ * for ever under /proc (every level reports ENOENT), so it is not used for a folder a user names.
+ */
+export function makeFolder(dir: string): void {
+  const missing: string[] = [];
+  for (let d = resolve(dir); !existsSync(d); d = dirname(d)) {
+    missing.push(d);
+    if (dirname(d) === d) break;
+  }
+  for (const d of missing.reverse()) mkdirSync(d);
 }

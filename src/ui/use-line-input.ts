@@ -5,7 +5,7 @@
 import { useRef, useState } from 'react';
 import { useInput } from 'ink';
 
-export function useLineInput(onSubmit: (line: string) => void, onInterrupt: () => void): string {
+export function useLineInput(onSubmit: (line: string) => void, onInterrupt: () => void, isActive = true): string {
   const buffer = useRef('');
   const [, redraw] = useState(0);
   useInput((input, key) => {
@@ -31,6 +31,6 @@ export function useLineInput(onSubmit: (line: string) => void, onInterrupt: () =
       onSubmit(line);
     }
     redraw((n) => n + 1);
-  });
+  }, { isActive });
   return buffer.current;
 }
