@@ -19,6 +19,7 @@ import { buildFlow, type Flow } from './dialogue/flow.js';
 import { replayCase } from './dialogue/replay.js';
 import { jobFromAnswers, parseDraft } from './dialogue/job.js';
 import { oneLine } from './units/quote.js';
+import { visible } from './knowledge/visible-text.js';
 import { outcomeOf } from './dialogue/outcome.js';
 import { ROLES, type Role } from './dialogue/work.js';
 import type { DialogueState } from './dialogue/reducer.js';
@@ -323,7 +324,7 @@ async function runSession(sessionFile: string, resumed: Session | undefined, exi
   };
   const ask = existing ? `A job is kept in the session ${sessionFile} (${existing.answers.length} answers, saved ${existing.savedAt}). Type resume to go on with it, or new to start a new job (the earlier one is kept aside).` : undefined;
   const { runDialogue } = await install.loadScreens();
-  const ended = await runDialogue({ notice: safety.value.notice, color, prepare, ...(ask ? { ask } : {}) });
+  const ended = await runDialogue({ notice: visible(safety.value.notice), color, prepare, ...(ask ? { ask } : {}) });
   if (ended.message) process.stderr.write(ended.message + '\n');
   return ended.code;
 }

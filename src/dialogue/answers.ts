@@ -4,6 +4,7 @@
  */
 import { describeQuantityError, DIMENSIONS, normalizeQuantityText, parseQuantity } from '../units/quantity.js';
 import { quote } from '../units/quote.js';
+import { spacedControls } from '../knowledge/visible-text.js';
 import type { DialogueQuestion } from './questions.js';
 
 export type AnswerValue = { kind: 'unknown' } | { kind: 'one'; value: string } | { kind: 'many'; values: string[] } | { kind: 'text'; value: string };
@@ -11,17 +12,27 @@ export type AnswerValue = { kind: 'unknown' } | { kind: 'one'; value: string } |
 export type ParsedAnswer = { ok: true; value: AnswerValue; shown: string } | { ok: false; reason: string };
 
 const UNKNOWN_WORDS = new Set(['', 'unknown', '?', '-', 'skip', 'dunno', "don't know", 'n/a', 'na']);
-/** Typed text beyond this is cut before reading: nobody types a 300-character answer. */
+/** A choice, a quantity or a command is short; longer input is refused, never cut. */
 export const MAX_ANSWER_LENGTH = 200;
+/** Free text (a finding, notes) may be a pasted paragraph. */
+export const MAX_TEXT_LENGTH = 2000;
 
 export function cleanInput(text: string): string {
-  // Control characters (pasted escape sequences, tabs) are dropped; spaces are kept single.
-  // eslint-disable-next-line no-control-regex
-  return text.replace(/[\u0000-\u001f\u007f]/g, ' ').replace(/\s+/g, ' ').trim().slice(0, MAX_ANSWER_LENGTH);
+  // Control characters (pasted escape sequences, tabs, line breaks of a paste) become spaces; spaces are kept single.
+  return spacedControls(text).replace(/\s+/g, ' ').trim();
+}
+
+/** Why an answer is too long to take, naming the limit; nothing is cut. */
+export function lengthProblem(text: string, freeText: boolean): string | undefined {
+  const limit = freeText ? MAX_TEXT_LENGTH : MAX_ANSWER_LENGTH;
+  if (text.length <= limit) return undefined;
+  return `that is ${text.length} characters, and ${freeText ? 'text' : 'an answer'} here is limited to ${limit}: nothing was taken; shorten it and enter it again`;
 }
 
 export function parseAnswer(q: DialogueQuestion, typed: string): ParsedAnswer {
   const text = cleanInput(typed);
+  const tooLong = lengthProblem(text, q.answer.kind === 'text');
+  if (tooLong) return { ok: false, reason: tooLong };
   if (UNKNOWN_WORDS.has(text.toLowerCase())) return { ok: true, value: { kind: 'unknown' }, shown: 'unknown' };
   const a = q.answer;
   switch (a.kind) {

@@ -5,7 +5,7 @@
  * an event tagged with the answers' version it was made for.
  */
 import type { CheckResult, Diagnosis } from '../engine/diagnose.js';
-import { parseAnswer, cleanInput } from './answers.js';
+import { parseAnswer, cleanInput, lengthProblem } from './answers.js';
 import { nextStep, type Flow, type Next } from './flow.js';
 import type { DialogueQuestion } from './questions.js';
 import { jobFromAnswers, parseDraft, type Answer } from './job.js';
@@ -164,10 +164,21 @@ export function reduce(state: DialogueState, event: DialogueEvent, ctx: Dialogue
   }
 }
 
+/** Whether the prompt waiting takes free text (a finding, notes, a name), where a pasted paragraph is one answer. */
+export function expectsFreeText(state: DialogueState, ctx: DialogueContext): boolean {
+  if (state.pendingWork) return workPrompt(state, ctx)?.id !== 'authorisation';
+  if (state.phase === 'recording') return outcomeStep(state, ctx)?.answer.kind === 'text';
+  if (state.phase !== 'asking') return false;
+  const step = currentStep(state, ctx);
+  return step.kind === 'ask' && step.question.answer.kind === 'text';
+}
+
 function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueContext): DialogueState {
   const text = cleanInput(typed);
   const word = text.toLowerCase();
   const base = { ...state, error: undefined };
+  const tooLong = state.phase === 'notice' ? undefined : lengthProblem(text, expectsFreeText(state, ctx));
+  if (tooLong) return { ...base, error: tooLong };
   if (state.phase === 'notice') return { ...base, phase: 'asking' };
   if (word === 'back') {
     const last = state.answers.at(-1);

@@ -9,6 +9,7 @@ import { join } from 'node:path';
 import { QUANTITY_NAMES } from '../model/quantity-names.js';
 import { READING_FIELDS } from './case-schema.js';
 import { readJsonFile, validate } from './read-json.js';
+import { controlPaths, withVisibleText } from './visible-text.js';
 import { parseKeptFileAsIs, sealKey, type RuleSeal } from './rule-seal.js';
 import { failed, ok, type Issue, type Result } from './result.js';
 import {
@@ -44,6 +45,8 @@ export interface RuleBase {
   safety: Safety;
   conditions: Record<string, Condition>;
   rules: LoadedRule[];
+  /** Text holding control characters, shown made visible (see visible-text.ts); `rules check` reports each. */
+  controlText?: Issue[];
 }
 
 /** Facts every job has (some may be unknown), besides observations and derived facts. */
@@ -79,6 +82,7 @@ export function loadRuleBase(dir: string, options: LoadOptions = {}): Result<Rul
     return failed({ code: 'unreadable', file: dir, path: '', message: 'rule folder cannot be read' });
   }
   const issues: Issue[] = [];
+  const controlText: Issue[] = [];
   const read = <S extends z.ZodType>(name: string, schemaName: string, schema: S): z.output<S> | undefined => {
     const file = join(dir, name);
     const raw = readJsonFile(file);
@@ -89,7 +93,10 @@ export function loadRuleBase(dir: string, options: LoadOptions = {}): Result<Rul
     const v = validate(file, raw.value.value, schema);
     if (!v.ok) return void issues.push(...v.issues);
     if (options.passed && parseKeptFileAsIs(raw.value.value, v.value)) options.passed(key);
-    return v.value;
+    const controls = controlPaths(v.value);
+    if (controls.length === 0) return v.value;
+    controlText.push(...controls.map((path) => ({ code: 'invalid' as const, file, path, message: 'holds a control character (an escape sequence, a line break or a direction override): shown as \\u…, so it cannot act on a terminal' })));
+    return withVisibleText(v.value);
   };
   for (const required of Object.keys(CATALOGUE_FILES)) {
     if (!names.includes(required)) issues.push({ code: 'rule-base', file: join(dir, required), path: '', message: 'missing: every rule folder has this file' });
@@ -107,7 +114,7 @@ export function loadRuleBase(dir: string, options: LoadOptions = {}): Result<Rul
     f?.rules.forEach((rule, k) => rules.push({ rule, file: join(dir, name), at: `rules[${k}]` }));
   }
   if (issues.length || !causes || !checks || !questions || !safety || !conditions) return failed(...issues);
-  const base: RuleBase = { dir, causes, checks, questions, safety, conditions, rules };
+  const base: RuleBase = { dir, causes, checks, questions, safety, conditions, rules, ...(controlText.length ? { controlText } : {}) };
   const cross = crossCheck(base);
   return cross.length ? failed(...cross) : ok(base);
 }

@@ -10,6 +10,7 @@ import { outOfBand, QUANTITY_LABELS, type QuantityName } from '../model/quantity
 import { OBSERVATIONS, SYMPTOMS, type ObservationName } from '../knowledge/vocabulary.js';
 import type { Role, WorkEntry } from '../dialogue/work.js';
 import { clockTime } from './clock-time.js';
+import { spacedControls } from '../knowledge/visible-text.js';
 
 export interface ReportInput {
   job: CaseFile;
@@ -29,9 +30,12 @@ export interface ReportInput {
 const UNIT: Record<string, string> = { degC: '°C', ohm: 'Ω', Mohm: 'MΩ', '1': '', 'N m': 'N·m' };
 const n = (x: number) => String(Number(x.toPrecision(4)));
 const withUnit = (x: number, u: string) => `${n(x)}${UNIT[u] === '' ? '' : ` ${UNIT[u] ?? u}`}`;
-/** Text people typed: no HTML gets through to the HTML report, no table breaks. */
-const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
-const cell = (s: string) => esc(s).replace(/\|/g, '\\|').replace(/\n/g, ' ');
+/**
+ * Text people typed, kept as text: one line (a newline cannot start a heading or leave its table
+ * cell or paragraph), no HTML, and no Markdown (links, images, emphasis, code) in the report.
+ */
+const esc = (s: string) => spacedControls(s).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/[\\`*_[\]!|~#]/g, '\\$&');
+const cell = esc;
 /** A sentence ends with one full stop, even after initials ("P.R."). */
 const sentence = (text: string) => (text.endsWith('.') ? text : `${text}.`);
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'live test (qualified person)', isolated: 'isolated (after isolation and lockout)' } as const;

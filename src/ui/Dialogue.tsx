@@ -8,7 +8,7 @@ import { Box, Static, Text, useApp, useStdout } from 'ink';
 import type { RuleEngines } from '../engine/run-rules.js';
 import { diagnose, isolationSteps } from '../engine/diagnose.js';
 import { parseDraft } from '../dialogue/job.js';
-import { COMMANDS, currentStep, draftOf, initialState, outcomeStep, progressOf, reduce, resultChecks, workPrompt, type DialogueContext, type DialogueState, type SavedProgress } from '../dialogue/reducer.js';
+import { COMMANDS, currentStep, draftOf, expectsFreeText, initialState, outcomeStep, progressOf, reduce, resultChecks, workPrompt, type DialogueContext, type DialogueState, type SavedProgress } from '../dialogue/reducer.js';
 import { statusOf, type WorkEntry } from '../dialogue/work.js';
 import type { DialogueQuestion } from '../dialogue/questions.js';
 import type { CaseFile } from '../knowledge/case-schema.js';
@@ -58,6 +58,8 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
   const typed = useLineInput(
     (line) => dispatch({ type: 'input', text: line, at: now() }),
     () => (onInterrupt ? onInterrupt() : exit(new Error('interrupted'))),
+    true,
+    useMemo(() => expectsFreeText(state, ctx), [state, ctx]),
   );
 
   // Save after every answer anywhere: the questions, a check's prompts, the outcome.

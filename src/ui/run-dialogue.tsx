@@ -8,6 +8,7 @@ import { useEffect, useState } from 'react';
 import { Box, Text, render, useInput } from 'ink';
 import { Dialogue, type DialogueProps } from './Dialogue.js';
 import { useLineInput } from './use-line-input.js';
+import { guardedStdin } from './guarded-stdin.js';
 
 /** Exit codes by signal, 128 + its number, as shells report them. */
 const SIGNAL_CODES = { SIGINT: 130, SIGTERM: 143, SIGHUP: 129 } as const;
@@ -103,13 +104,16 @@ export async function runDialogue(boot: { notice: string; color: boolean; ask?: 
         app.unmount();
       }}
     />,
-    { exitOnCtrlC: false, patchConsole: false },
+    { exitOnCtrlC: false, patchConsole: false, stdin: guardedStdin(process.stdin) },
   );
+  // Bracketed paste: the terminal marks a paste, so its line breaks stay in a free-text answer.
+  process.stdout.write('\u001b[?2004h');
   const onTerm = () => stop('SIGTERM');
   const onHup = () => stop('SIGHUP');
   process.once('SIGTERM', onTerm);
   process.once('SIGHUP', onHup);
   await app.waitUntilExit();
+  process.stdout.write('\u001b[?2004l');
   process.off('SIGTERM', onTerm);
   process.off('SIGHUP', onHup);
   return message === undefined ? { code } : { code, message };
