@@ -2,8 +2,12 @@
 import type { CaseFile, CaseInput } from '../knowledge/case-schema.js';
 import { loadCaseFile } from '../knowledge/load-case.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
-import { failed, ok, type Issue, type Result } from '../knowledge/result.js';
+import { failedWith, ok, type Issue, type Result } from '../knowledge/result.js';
+import { dirname } from 'node:path';
 import { diagnose } from './diagnose.js';
+
+/** Case files whose issues are listed; the rest are counted. */
+const FILES_WITH_ISSUES_SHOWN = 20;
 import { buildEngine } from './run-rules.js';
 
 export interface CaseRank {
@@ -33,10 +37,12 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
   const causeIds = new Set(base.causes.map((c) => c.id));
   const issues: Issue[] = [];
   const cases: CaseRank[] = [];
+  let badFiles = 0;
   for (const file of files) {
     const c = loadCaseFile(file, causeIds);
     if (!c.ok) {
-      issues.push(...c.issues);
+      // The first files' issues say what is wrong; beyond them, a count.
+      if (++badFiles <= FILES_WITH_ISSUES_SHOWN) issues.push(...c.issues);
       continue;
     }
     const { job, raw } = c.value;
@@ -45,7 +51,9 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
     const { ranked, questionsAsked } = await run(job, raw);
     cases.push({ id: job.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}) });
   }
-  if (issues.length) return failed(...issues);
+  const more = badFiles - FILES_WITH_ISSUES_SHOWN;
+  if (more > 0) issues.push({ code: 'invalid', file: dirname(files[0]!), path: '', message: `and ${more} more case file${more === 1 ? '' : 's'} with issues` });
+  if (issues.length) return failedWith(issues);
   return ok({
     total: cases.length,
     top1: cases.filter((c) => c.rank === 1).length,

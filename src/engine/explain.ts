@@ -25,11 +25,11 @@ function withUnit(x: number, unit: string): string {
 export function fillTemplate(template: string, facts: Facts, e: Expectation): string {
   return template.replace(/\{(value|measured|ratio|obs):?\.?([A-Za-z0-9-]+)\}/g, (whole, kind: string, name: string) => {
     if (kind === 'obs') {
-      const spec = OBSERVATIONS[name as ObservationName];
+      const spec = Object.hasOwn(OBSERVATIONS, name) ? OBSERVATIONS[name as ObservationName] : undefined;
       const answer = facts[name];
       return spec && typeof answer === 'string' ? (spec.values as Record<string, string>)[answer] ?? answer : 'unknown';
     }
-    const q = e.quantities[name as QuantityName];
+    const q = Object.hasOwn(e.quantities, name) ? e.quantities[name as QuantityName] : undefined;
     if (!q) return whole;
     if (kind === 'ratio') return q.ratio === null ? '?' : `${Math.round(q.ratio * 100)} %`;
     const x = kind === 'value' ? q.value : q.measured;
@@ -74,16 +74,16 @@ export function describeTree(tree: unknown, e: Expectation, derivedWords: Derive
     const derived = derivedWords(leaf.fact);
     if (derived !== undefined) return derived;
     if (leaf.fact === 'symptoms') return SYMPTOMS[leaf.value as keyof typeof SYMPTOMS] ?? String(leaf.value);
-    if (leaf.fact in OBSERVATIONS) return `${OBSERVATIONS[leaf.fact as ObservationName].says}: ${String(leaf.factResult)}`;
-    if (name && name in QUANTITY_LABELS) {
-      const q = e.quantities[name as QuantityName];
+    if (Object.hasOwn(OBSERVATIONS, leaf.fact)) return `${OBSERVATIONS[leaf.fact as ObservationName].says}: ${String(leaf.factResult)}`;
+    if (name && Object.hasOwn(QUANTITY_LABELS, name)) {
+      const q = Object.hasOwn(e.quantities, name) ? e.quantities[name as QuantityName] : undefined;
       const label = QUANTITY_LABELS[name as QuantityName];
       if (leaf.fact === 'ratio' && q && q.measured !== null) {
         return `${label} ${withUnit(q.measured, q.unit)} is ${Math.round((q.ratio ?? 0) * 100)} % of the expected ${withUnit(q.value, q.unit)}`;
       }
       if (q) return `${label} ${withUnit(leaf.fact === 'measured' && q.measured !== null ? q.measured : q.value, q.unit)} ${OPERATOR_WORDS[leaf.operator] ?? leaf.operator} ${describeValue(leaf.value, e)}`;
     }
-    if (leaf.fact in MACHINE_WORDS) return `${MACHINE_WORDS[leaf.fact]}: ${String(leaf.factResult).replace(/-/g, ' ')}`;
+    if (Object.hasOwn(MACHINE_WORDS, leaf.fact)) return `${MACHINE_WORDS[leaf.fact]}: ${String(leaf.factResult).replace(/-/g, ' ')}`;
     return `${leaf.fact} ${leaf.operator} ${JSON.stringify(leaf.value)}`;
   });
   return parts.join('; ');
