@@ -16,7 +16,7 @@ import { machineSchema } from '../knowledge/case-schema.js';
 import type { Flow } from '../dialogue/flow.js';
 import { workEntrySchema, type WorkEntry } from '../dialogue/work.js';
 import { jobFromAnswers, parseDraft, type Answer } from '../dialogue/job.js';
-import { parseAnswer } from '../dialogue/answers.js';
+import { parseAnswer, type AnswerValue } from '../dialogue/answers.js';
 import type { DialogueQuestion } from '../dialogue/questions.js';
 import type { SavedProgress } from '../dialogue/reducer.js';
 
@@ -107,14 +107,18 @@ export interface Restored {
   progress: SavedProgress;
 }
 
-/** A stored answer against its question, read again as if typed: a value the question would refuse is refused. */
-function answerProblem(q: DialogueQuestion, v: Session['answers'][number]['value']): string | undefined {
-  if (v.kind === 'unknown') return undefined;
+/**
+ * A stored answer against its question, read again as if typed: a value the question would refuse
+ * is refused. Returns what the transcript shows, worked out again (the file's own words are not printed).
+ */
+function reread(q: DialogueQuestion, v: Session['answers'][number]['value']): { value: AnswerValue; shown: string } | { problem: string } {
+  if (v.kind === 'unknown') return { value: v, shown: 'unknown' };
   const typed = v.kind === 'many' ? v.values.join(' ') : v.value;
   const again = parseAnswer(q, typed);
-  if (!again.ok) return again.reason;
+  if (!again.ok) return { problem: again.reason };
   const same = again.value.kind === v.kind && (again.value.kind !== 'one' || (v.kind === 'one' && again.value.value === v.value));
-  return same ? undefined : `a ${v.kind} answer does not fit this question`;
+  // The value as the dialogue would have taken it: typed text without its control characters.
+  return same ? { value: again.value, shown: again.shown } : { problem: `a ${v.kind} answer does not fit this question` };
 }
 
 /**
@@ -131,9 +135,9 @@ export function restoreSession(file: string, s: Session, flow: Flow): Result<Res
     if (!q) bad(`answers[${k}].questionId`, `"${a.questionId}" is not a question of the rule folder in use`);
     else if (seen.has(a.questionId)) bad(`answers[${k}].questionId`, `"${a.questionId}" is answered twice`);
     else {
-      const problem = answerProblem(q, a.value);
-      if (problem) bad(`answers[${k}].value`, problem);
-      else answers.push({ ...a, target: q.target });
+      const r = reread(q, a.value);
+      if ('problem' in r) bad(`answers[${k}].value`, r.problem);
+      else answers.push({ ...a, value: r.value, shown: r.shown, target: q.target });
     }
     seen.add(a.questionId);
   }

@@ -110,3 +110,13 @@ describe('opening a session', () => {
     }
   });
 });
+
+describe('a resumed session', () => {
+  it('shows each answer in words worked out again, not the words the file holds', () => {
+    const file = sessionIn();
+    writeSession(file, { rules: 'rules', answers: [answer('present-state', { kind: 'one', value: 'running' }, 'running\u001b[2J\u001b]0;owned\u0007')] });
+    const s = readSession(file);
+    const r = s.ok ? restoreSession(file, s.value, flow) : s;
+    expect(r.ok && r.value.answers[0]!.shown).toBe('running');
+  });
+});
