@@ -31,7 +31,8 @@ import { chartText } from './shell/chart-text.js';
 import { readSettings, resolveKnowledge } from './shell/settings.js';
 import { formatExpectation } from './shell/format-expect.js';
 import { formatDiagnosis } from './shell/format-diagnosis.js';
-import { formatCaseCheck } from './shell/format-case-check.js';
+import { caseCheckPrinter } from './shell/stream-case-check.js';
+import { caseCheckWorkerJob, checkCasesInParallel, runCaseCheckWorker } from './shell/parallel-case-check.js';
 import { USAGE } from './shell/help.js';
 import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
 import { parseCommandLine } from './shell/cli-options.js';
@@ -205,10 +206,12 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
       return { ranked: r.diagnosis.causes.map((x) => x.id), questionsAsked: r.questionsAsked };
     };
   }
-  const report = await checkCases(files, base.value, runner);
+  // Results as they come, a count on a terminal, and (without --adaptive) every core at work.
+  const printer = caseCheckPrinter(opts.json ? 'json' : 'text', (text) => process.stdout.write(text), process.stderr.isTTY ? (text) => process.stderr.write(text) : undefined);
+  const report = runner ? await checkCases(files, base.value, runner, printer.stream) : await checkCasesInParallel(files, base.value, k.value.rules, printer.stream);
+  const someOut = printer.end(report);
   if (!report.ok) return fail(report.issues);
-  out(opts.json ? JSON.stringify(report.value, null, 2) : formatCaseCheck(report.value));
-  return report.value.cases.some((c) => c.rank === 0 || c.rank > 3) ? 1 : 0;
+  return someOut ? 1 : 0;
 }
 
 /** A job file with the rule base in use: a recorded cause must be one of its catalogue. */
@@ -418,6 +421,9 @@ function watchStdout(): void {
  */
 export async function runCli(argv: string[], from: Install): Promise<void> {
   install = from;
+  // A worker thread of cases check (see parallel-case-check.ts) serves batches, nothing else.
+  const worker = caseCheckWorkerJob();
+  if (worker) return runCaseCheckWorker(worker, loadRules);
   watchStdout();
   try {
     process.exitCode = await main(argv);

@@ -31,33 +31,77 @@ export interface CaseCheckReport {
   cases: CaseRank[];
 }
 
-export async function checkCases(files: string[], base: RuleBase, runner?: CaseRunner): Promise<Result<CaseCheckReport>> {
-  const engine = buildEngine(base);
-  const run: CaseRunner = runner ?? (async (c) => ({ ranked: (await diagnose(c, base, engine)).causes.map((x) => x.id) }));
-  const causeIds = new Set(base.causes.map((c) => c.id));
-  const issues: Issue[] = [];
-  const cases: CaseRank[] = [];
-  let badFiles = 0;
-  for (const file of files) {
-    const c = loadCaseFile(file, causeIds);
-    if (!c.ok) {
-      // The first files' issues say what is wrong; beyond them, a count.
-      if (++badFiles <= FILES_WITH_ISSUES_SHOWN) issues.push(...c.issues);
-      continue;
-    }
-    const { job, raw } = c.value;
-    const expected = job.outcome?.cause;
-    if (expected === undefined) continue;
-    const { ranked, questionsAsked } = await run(job, raw);
-    cases.push({ id: job.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}) });
+/** How a check reports as it goes, for a long run: each case as it is ranked, and the count done. */
+export interface CaseStream {
+  /** Told each case as it is ranked, in file order. */
+  onCase?: (c: CaseRank) => void;
+  /** Told after each file how many are done. */
+  onProgress?: (done: number, of: number) => void;
+  /** Keep every case in the report (the default); false keeps memory flat in the number of cases. */
+  keep?: boolean;
+}
+
+/** Tallies of ranks, kept as cases come so no list of them is needed. */
+export class CaseTally {
+  total = 0;
+  top1 = 0;
+  top3 = 0;
+  add(c: CaseRank): void {
+    this.total++;
+    if (c.rank === 1) this.top1++;
+    if (c.rank >= 1 && c.rank <= 3) this.top3++;
   }
-  const more = badFiles - FILES_WITH_ISSUES_SHOWN;
-  if (more > 0) issues.push({ code: 'invalid', file: dirname(files[0]!), path: '', message: `and ${more} more case file${more === 1 ? '' : 's'} with issues` });
-  if (issues.length) return failedWith(issues);
-  return ok({
-    total: cases.length,
-    top1: cases.filter((c) => c.rank === 1).length,
-    top3: cases.filter((c) => c.rank >= 1 && c.rank <= 3).length,
-    cases,
-  });
+}
+
+/** Ranks one case file: a case, nothing (no recorded cause), or its issues. */
+export async function rankCaseFile(file: string, causeIds: ReadonlySet<string>, run: CaseRunner): Promise<CaseRank | undefined | { issues: Issue[] }> {
+  const c = loadCaseFile(file, causeIds);
+  if (!c.ok) return { issues: c.issues };
+  const { job, raw } = c.value;
+  const expected = job.outcome?.cause;
+  if (expected === undefined) return undefined;
+  const { ranked, questionsAsked } = await run(job, raw);
+  return { id: job.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}) };
+}
+
+/** The runner that diagnoses a whole case with one engine for all. */
+export function wholeCaseRunner(base: RuleBase): CaseRunner {
+  const engine = buildEngine(base);
+  return async (c) => ({ ranked: (await diagnose(c, base, engine)).causes.map((x) => x.id) });
+}
+
+/** Collects the issues of broken case files: those of the first files, then a count. */
+export class CaseIssues {
+  private readonly issues: Issue[] = [];
+  private bad = 0;
+  add(issues: readonly Issue[]): void {
+    if (++this.bad <= FILES_WITH_ISSUES_SHOWN) this.issues.push(...issues);
+  }
+  /** A failure, if any file was broken; `folder` is named for the count. */
+  result(folder: string): Result<never> | undefined {
+    const more = this.bad - FILES_WITH_ISSUES_SHOWN;
+    if (more > 0) this.issues.push({ code: 'invalid', file: folder, path: '', message: `and ${more} more case file${more === 1 ? '' : 's'} with issues` });
+    return this.issues.length ? failedWith(this.issues) : undefined;
+  }
+}
+
+export async function checkCases(files: string[], base: RuleBase, runner?: CaseRunner, stream: CaseStream = {}): Promise<Result<CaseCheckReport>> {
+  const run = runner ?? wholeCaseRunner(base);
+  const causeIds = new Set(base.causes.map((c) => c.id));
+  const issues = new CaseIssues();
+  const tally = new CaseTally();
+  const cases: CaseRank[] = [];
+  for (const [k, file] of files.entries()) {
+    const r = await rankCaseFile(file, causeIds, run);
+    if (r && 'issues' in r) issues.add(r.issues);
+    else if (r) {
+      tally.add(r);
+      stream.onCase?.(r);
+      if (stream.keep !== false) cases.push(r);
+    }
+    stream.onProgress?.(k + 1, files.length);
+  }
+  const failure = issues.result(files[0] ? dirname(files[0]) : '.');
+  if (failure) return failure;
+  return ok({ total: tally.total, top1: tally.top1, top3: tally.top3, cases });
 }
