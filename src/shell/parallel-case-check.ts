@@ -1,6 +1,6 @@
 /**
- * cases check on every core: the files go out in batches to worker threads (and this thread),
- * each with its own rule engine, and the results come back and are reported in file order as they arrive, so only
+ * cases check on every core: the files go out in batches to worker threads, each with its own
+ * rule engine, and the results come back and are reported in file order as they arrive, so only
  * a few batches are ever held. Each worker is this same command started again in a thread
  * (the launcher, then runCli, which sees the worker's data and serves batches instead).
  */
@@ -16,6 +16,8 @@ const BATCH = 50;
 /** Below this, starting threads costs more than it saves. */
 const MIN_FILES = 200;
 const MAX_WORKERS = 8;
+/** Enough for the built-in rules with room to spare; a worker that runs out hands its batch back. */
+const WORKER_LIMITS = { maxOldGenerationSizeMb: Number(process.env.DCTRIAGE_WORKER_HEAP_MB) || 48, maxYoungGenerationSizeMb: 8 };
 
 type Ranked = CaseRank | { issues: Issue[] } | null;
 interface WorkerJob {
@@ -66,18 +68,12 @@ export async function checkCasesInParallel(files: string[], base: RuleBase, rule
   const issues = new CaseIssues();
   const tally = new CaseTally();
   const arrived = new Map<number, Ranked[]>();
-  let nextToSend = 0;
+  const pending = batches.map((_, k) => k);
   let nextToReport = 0;
   let filesDone = 0;
   const workers: Worker[] = [];
   try {
     await new Promise<void>((resolve, reject) => {
-      const send = (w: Worker) => {
-        if (nextToSend < batches.length) {
-          w.postMessage({ batch: nextToSend, files: batches[nextToSend]! } satisfies ToWorker);
-          nextToSend++;
-        }
-      };
       const report = () => {
         for (let r = arrived.get(nextToReport); r; r = arrived.get(nextToReport)) {
           arrived.delete(nextToReport++);
@@ -92,32 +88,50 @@ export async function checkCasesInParallel(files: string[], base: RuleBase, rule
         }
         if (nextToReport === batches.length) resolve();
       };
-      // This thread takes batches too: with its engine already built, it is the cheapest worker.
-      const here = wholeCaseRunner(base);
-      const causeIds = new Set(base.causes.map((c) => c.id));
-      const work = async () => {
-        while (nextToSend < batches.length) {
-          const batch = nextToSend++;
+      // This thread only hands out batches, unless a worker fails: then it takes over what is left.
+      let working = false;
+      const workHere = async () => {
+        if (working) return;
+        working = true;
+        const here = wholeCaseRunner(base);
+        const causeIds = new Set(base.causes.map((c) => c.id));
+        for (let batch = pending.shift(); batch !== undefined; batch = pending.shift()) {
           const results: Ranked[] = [];
           for (const file of batches[batch]!) results.push((await rankCaseFile(file, causeIds, here)) ?? null);
           arrived.set(batch, results);
           report();
         }
+        working = false;
       };
-      for (let k = 0; k < threads - 1; k++) {
-        // The same command in a thread: argv keeps the launcher on its fast build.
-        const w = new Worker(script, { argv: ['cases', 'check'], workerData: { dctriageCaseCheck: { rules: rulesDir } } satisfies WorkerJob, stdout: false, stderr: false });
+      const start = () => {
+        // The same command in a thread: argv keeps the launcher on its fast build. Its heap is
+        // kept small, so that garbage is collected rather than held (memory stays flat).
+        const w = new Worker(script, { argv: ['cases', 'check'], workerData: { dctriageCaseCheck: { rules: rulesDir } } satisfies WorkerJob, stdout: false, stderr: false, resourceLimits: WORKER_LIMITS });
         workers.push(w);
+        let inFlight: number | undefined;
+        const send = () => {
+          inFlight = pending.shift();
+          if (inFlight !== undefined) w.postMessage({ batch: inFlight, files: batches[inFlight]! } satisfies ToWorker);
+        };
         w.on('message', (m: FromWorker) => {
           if ('failed' in m) return reject(new Error(m.failed));
           arrived.set(m.batch, m.results);
-          send(w);
+          send();
           report();
         });
-        w.on('error', reject);
-        send(w);
+        // A worker that fails (out of its memory on a large rule base, say): its batch goes back, and this thread works.
+        w.on('error', () => {
+          if (inFlight !== undefined) pending.unshift(inFlight);
+          inFlight = undefined;
+          workHere().catch(reject);
+        });
+        send();
+      };
+      try {
+        for (let k = 0; k < threads; k++) start();
+      } catch {
+        workHere().catch(reject);
       }
-      work().catch(reject);
     });
   } finally {
     for (const w of workers) w.postMessage({ done: true } satisfies ToWorker);

@@ -35,6 +35,15 @@ describe('cases check over many files', () => {
     if (whole.ok) expect(JSON.parse(two.stdout)).toEqual({ cases: whole.value.cases.map((c) => ({ ...c })), total: whole.value.total, top1: whole.value.top1, top3: whole.value.top3 });
   }, 120_000);
 
+  it('finishes in this thread what a failed worker left, with the same report', () => {
+    const dir = manyCases(220);
+    const one = runCli(['cases', 'check', dir, '--json'], { env: { DCTRIAGE_THREADS: '1' } });
+    // 2 MB of heap: every worker runs out of memory at start.
+    const starved = runCli(['cases', 'check', dir, '--json'], { env: { DCTRIAGE_THREADS: '2', DCTRIAGE_WORKER_HEAP_MB: '2' } });
+    expect(starved.code).toBe(one.code);
+    expect(JSON.parse(starved.stdout)).toEqual(JSON.parse(one.stdout));
+  }, 120_000);
+
   it('writes a valid report with no cases', () => {
     const dir = mkdtempSync(join(tmpdir(), 'dctriage-none-'));
     const r = runCli(['cases', 'check', dir, '--json']);
