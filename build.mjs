@@ -21,6 +21,8 @@ const common = {
   target: 'node20',
   logLevel: 'warning',
   define: { 'process.env.NODE_ENV': '"production"', DCTRIAGE_VERSION: JSON.stringify(pkg.version) },
+  // json-rules-engine's deep copy, without its linear search for repeated objects (see the stub).
+  alias: { clone: './stubs/clone.cjs' },
 };
 
 // Old chunks would pile up under their hashed names.
@@ -37,7 +39,7 @@ await build({
   // A single file would also keep all of mathjs, which a lazily loaded part defeats tree-shaking for.
   splitting: true,
   // ink imports react-devtools-core statically; it is never used at run time.
-  alias: { 'react-devtools-core': './stubs/react-devtools-core.js' },
+  alias: { ...common.alias, 'react-devtools-core': './stubs/react-devtools-core.js' },
   // CJS dependencies (signal-exit, json-rules-engine) call require() inside the ESM bundle.
   banner: { js: '#!/usr/bin/env node\nimport { createRequire as __createRequire } from "node:module"; const require = __createRequire(import.meta.url);' },
 });
