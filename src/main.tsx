@@ -277,6 +277,7 @@ async function runSession(sessionFile: string, resumed: Session | undefined, exi
   if (!safety.ok) return fail(safety.issues);
   for (const n of notes) process.stderr.write(oneLine(n, 800) + '\n');
   const color = !process.env.NO_COLOR;
+  const reportsWritten = new Set<string>();
   const prepare = (choice?: 'resume' | 'new'): Prepared => {
     let note: string | undefined;
     if (existing && choice === 'resume') {
@@ -320,7 +321,7 @@ async function runSession(sessionFile: string, resumed: Session | undefined, exi
           }
         },
         onSave: (answers, outcome) => saveJob({ ...jobFromAnswers(answers, machineFile), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
-        onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role, { force: opts.force, inputs: [sessionFile, opts.machine] }),
+        onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role, { force: opts.force, inputs: [sessionFile, opts.machine], ours: reportsWritten }),
         onRecord: (answers, outcome) => recordJob({ ...jobFromAnswers(answers, machineFile), outcome: outcomeOf(outcome, today()) }, base.value, opts),
       },
     };

@@ -6,7 +6,7 @@
  * made in the working folder. Either both files are written in full or neither is left behind.
  */
 import { lstatSync, statSync, unlinkSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
+import { basename, dirname, join, resolve } from 'node:path';
 import { speedCurves } from '../model/curve.js';
 import { speedChartSvg } from '../chart/svg-chart.js';
 import { jobReport, type ReportInput } from '../report/job-report.js';
@@ -28,6 +28,8 @@ export interface ReportTarget extends IoOptions {
   force?: boolean | undefined;
   /** Files read for this job (the case, the machine, the session): never written over. */
   inputs?: readonly (string | undefined)[];
+  /** Reports this run wrote (a dialogue writes its report again as the work goes on): these it may replace. Filled in here. */
+  ours?: Set<string>;
 }
 
 function sameFile(a: string, b: string): boolean {
@@ -51,7 +53,7 @@ function checkTarget(file: string, target: ReportTarget): boolean {
   }
   if (target.inputs?.some((input) => input !== undefined && sameFile(input, file))) throw new ReportRefused(file, 'is a file this job reads: the report never replaces it; name a new file');
   if (!st.isFile()) throw new ReportRefused(file, 'is not a regular file (a folder, a link or a device): the report goes only to a new file, or with --force over a regular file');
-  if (!target.force) throw new ReportRefused(file, 'already exists: name a new file, or add --force to replace it');
+  if (!target.force && !target.ours?.has(resolve(file))) throw new ReportRefused(file, 'already exists: name a new file, or add --force to replace it');
   return true;
 }
 
@@ -79,7 +81,7 @@ export async function writeReport(path: string | undefined, input: Omit<ReportIn
     const chartExisted = chartPath ? checkTarget(chartPath, target) : false;
     const markdown = jobReport({ ...input, ...(chartFile ? { chartFile } : {}) });
     const text = html ? await htmlReport(markdown, `Job report ${input.job.job?.asset ?? ''}`.trim(), svg) : markdown;
-    const report = stageFile(file, text, { ...target, exclusive: path !== undefined && !target.force });
+    const report = stageFile(file, text, { ...target, exclusive: path !== undefined && !target.force && !target.ours?.has(resolve(file)) });
     try {
       if (chartPath && svg) stageFile(chartPath, svg, { ...target, exclusive: !chartExisted }).publish();
     } catch (e) {
@@ -93,6 +95,7 @@ export async function writeReport(path: string | undefined, input: Omit<ReportIn
       if (chartPath && !chartExisted) removeQuietly(chartPath);
       throw e;
     }
+    for (const written of [file, chartPath]) if (written) target.ours?.add(resolve(written));
   } catch (e) {
     if (claimed) removeQuietly(claimed);
     throw e;

@@ -73,3 +73,25 @@ describe('diagnose --report', () => {
     expect(readdirSync(dir).sort()).toEqual(['job.json', 'link.md']);
   });
 });
+
+describe('the dialogue writing its report again', () => {
+  it('replaces the report (and drawing) it wrote itself, and nothing else', async () => {
+    const { writeReport } = await import('../../src/shell/write-report.js');
+    const { caseSchema } = await import('../../src/knowledge/case-schema.js');
+    const { diagnose } = await import('../../src/engine/diagnose.js');
+    const { buildEngine } = await import('../../src/engine/run-rules.js');
+    const { builtInRules } = await import('../support/rules.js');
+    const base = builtInRules();
+    const raw = JSON.parse(readFileSync(demo, 'utf8'));
+    const job = caseSchema.parse(raw);
+    const input = { job, raw, diagnosis: await diagnose(job, base, buildEngine(base)), safety: base.safety, generatedAt: '2026-12-01T21:00:00Z' };
+    const dir = emptyDir();
+    const ours = new Set<string>();
+    await writeReport(join(dir, 'job.md'), input, dir, { ours });
+    await writeReport(join(dir, 'job.md'), { ...input, generatedAt: '2026-12-01T22:00:00Z' }, dir, { ours });
+    expect(readFileSync(join(dir, 'job.md'), 'utf8')).toContain('22:00');
+    writeFileSync(join(dir, 'theirs.md'), 'kept');
+    await expect(writeReport(join(dir, 'theirs.md'), input, dir, { ours })).rejects.toThrow(/already exists/);
+    expect(readdirSync(dir).sort()).toEqual(['job.md', 'job.svg', 'theirs.md']);
+  });
+});
