@@ -9,7 +9,7 @@ import { computeExpectations } from './model/expected.js';
 import { caseFromJson, modelInput } from './knowledge/load-case.js';
 import { loadRuleBase, type RuleBase } from './knowledge/load-rules.js';
 import { readRuleSeal, type RuleSeal } from './knowledge/rule-seal.js';
-import { failed, formatIssues, ok, type Issue, type Result } from './knowledge/result.js';
+import { exitCodeOf, failed, formatIssues, ok, type Issue, type Result } from './knowledge/result.js';
 import { MAX_FILE_BYTES, parseJsonText, readJson, readValidated, validate } from './knowledge/read-json.js';
 import { caseSchema, machineSchema } from './knowledge/case-schema.js';
 import { safetyFile } from './knowledge/rulebase-schema.js';
@@ -19,14 +19,16 @@ import { analyseTests } from './engine/series-analyses.js';
 import { checkCases, type CaseRunner } from './engine/check-cases.js';
 import { buildFlow, type Flow } from './dialogue/flow.js';
 import { replayCase } from './dialogue/replay.js';
-import { jobFromAnswers, parseDraft, type Answer } from './dialogue/job.js';
+import { jobFromAnswers, parseDraft } from './dialogue/job.js';
+import { oneLine } from './units/quote.js';
+import { visible } from './knowledge/visible-text.js';
 import { outcomeOf } from './dialogue/outcome.js';
 import { ROLES, type Role } from './dialogue/work.js';
 import { latestDiagnosis, type DialogueState } from './dialogue/reducer.js';
-import { defaultSessionFile, readSession, sessionAnswers, writeSession, type Session } from './shell/session.js';
-import { writeNewFile } from './shell/safe-write.js';
+import { defaultSessionFile, keepAside, openSession, restoreSession, writeSession, type Restored, type Session } from './shell/session.js';
+import { WriteFailed, writeNewFile, writeProblem } from './shell/safe-write.js';
 import { fileCase } from './shell/file-case.js';
-import { writeReport } from './shell/write-report.js';
+import { ReportRefused, writeReport, type ReportTarget } from './shell/write-report.js';
 import { chartText } from './shell/chart-text.js';
 import { readSettings, resolveKnowledge } from './shell/settings.js';
 import { formatExpectation } from './shell/format-expect.js';
@@ -35,7 +37,8 @@ import { formatSeries } from './report/series-text.js';
 import { historyOf, readRecordedJobs } from './shell/history.js';
 import { formatHistory } from './report/history-text.js';
 import { assetHistory, earlierJobsNote, type RecordedJob } from './engine/asset-history.js';
-import { formatCaseCheck } from './shell/format-case-check.js';
+import { caseCheckPrinter } from './shell/stream-case-check.js';
+import { caseCheckWorkerJob, checkCasesInParallel, runCaseCheckWorker } from './shell/parallel-case-check.js';
 import { helpFor } from './shell/help.js';
 import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
 import { readCommandLine } from './shell/cli-options.js';
@@ -94,7 +97,7 @@ class UsageError extends Error {
 /** One line per issue, each starting with the program's name as other tools' messages do. */
 function fail(issues: Issue[]): number {
   process.stderr.write(withProgramName(formatIssues(issues)) + '\n');
-  return 2;
+  return exitCodeOf(issues);
 }
 
 const withProgramName = (lines: string) => lines.split('\n').map((l) => `dctriage: ${l}`).join('\n');
@@ -163,10 +166,10 @@ async function main(argv: string[]): Promise<number> {
       }
       if (opts.report !== undefined) {
         try {
-          const where = await writeReport(opts.report, report, process.cwd());
+          const where = await writeReport(opts.report, report, process.cwd(), { force: opts.force, inputs: [args[0]] });
           process.stderr.write(`Job report written to ${where}\n`);
         } catch (e) {
-          return fail([{ code: 'unreadable', file: opts.report, path: '', message: `could not write the report: ${(e as Error).message}` }]);
+          return fail([reportIssue(opts.report, e)]);
         }
       }
       return 0;
@@ -242,11 +245,12 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
       return { ranked: r.diagnosis.causes.map((x) => x.id), questionsAsked: r.questionsAsked };
     };
   }
-  const report = await checkCases(files, base.value, runner);
+  // Results as they come, a count on a terminal, and (without --adaptive) every core at work.
+  const printer = caseCheckPrinter(opts.json ? 'json' : 'text', (text) => process.stdout.write(text), process.stderr.isTTY ? (text) => process.stderr.write(text) : undefined, { format: JSON_FORMATS.caseCheck, width: terminalWidth(), shownPath });
+  const report = runner ? await checkCases(files, base.value, runner, printer.stream) : await checkCasesInParallel(files, base.value, k.value.rules, printer.stream);
+  const someOut = printer.end(report);
   if (!report.ok) return fail(report.issues);
-  const shown = { ...report.value, cases: report.value.cases.map((c) => ({ ...c, file: shownPath(c.file) })), skipped: report.value.skipped.map((s) => ({ ...s, file: shownPath(s.file) })) };
-  out(opts.json ? JSON.stringify({ format: JSON_FORMATS.caseCheck, ...shown }, null, 2) : wrapText(formatCaseCheck(shown, terminalWidth()), terminalWidth()));
-  return report.value.cases.some((c) => c.rank === 0 || c.rank > 3 || (c.loop?.confirmed && !c.loop.correct)) ? 1 : 0;
+  return someOut ? 1 : 0;
 }
 
 /** A job file (or - for standard input) with the rule base in use: a recorded cause must be one of its catalogue. */
@@ -325,23 +329,30 @@ function print(o: Outcome, asText = true): number {
 /** The interactive dialogue; Ink is loaded only here. */
 async function dialogue(
   resume: boolean,
-  opts: { rules?: string | undefined; cases?: string | undefined; machine?: string | undefined; session?: string | undefined; report?: string | undefined; role?: string | undefined },
+  opts: { rules?: string | undefined; cases?: string | undefined; machine?: string | undefined; session?: string | undefined; report?: string | undefined; role?: string | undefined; force?: boolean | undefined },
 ): Promise<number> {
   if (!process.stdin.isTTY || !process.stdout.isTTY) {
     process.stderr.write('dctriage: the dialogue needs a terminal. For a job in a file, run: dctriage diagnose FILE\n');
     return 2;
   }
   const sessionFile = opts.session ?? defaultSessionFile();
-  let rulesDir = opts.rules ?? install.rules;
-  let machineFile: unknown;
-  let saved: Session | undefined;
-  if (resume) {
-    const s = readSession(sessionFile);
-    if (!s.ok) return fail(s.issues);
-    saved = s.value;
-    rulesDir = opts.rules ?? s.value.rules;
-    machineFile = s.value.machineFile;
-  } else if (opts.machine) {
+  // Before the first question: the session can be written, and no other dialogue holds it.
+  const opened = openSession(sessionFile, resume);
+  if (!opened.ok) return fail(opened.issues);
+  const { lock, existing } = opened.value;
+  process.once('exit', () => lock.release());
+  try {
+    return await runSession(sessionFile, opened.value.saved, existing, opened.value.notes, opts);
+  } finally {
+    lock.release();
+  }
+}
+
+async function runSession(sessionFile: string, resumed: Session | undefined, existing: Session | undefined, notes: string[], opts: Parameters<typeof dialogue>[1]): Promise<number> {
+  let saved = resumed;
+  let rulesDir = opts.rules ?? saved?.rules ?? install.rules;
+  let machineFile: unknown = saved?.machineFile;
+  if (!saved && opts.machine) {
     const m = readMachineFile(opts.machine);
     if (!m.ok) return fail(m.issues);
     machineFile = m.value;
@@ -353,36 +364,60 @@ async function dialogue(
   // The notice is all the first frame needs; the rest of the rule base loads behind it.
   const safety = readValidated(join(rulesDir, 'safety.json'), safetyFile);
   if (!safety.ok) return fail(safety.issues);
+  for (const n of notes) process.stderr.write(oneLine(n, 800) + '\n');
   const color = useColor();
-  const prepare = (): Prepared => {
+  const reportsWritten = new Set<string>();
+  const prepare = (choice?: 'resume' | 'new'): Prepared => {
+    let note: string | undefined;
+    if (existing && choice === 'resume') {
+      saved = existing;
+      rulesDir = opts.rules ?? existing.rules;
+      machineFile = existing.machineFile;
+    } else if (existing && choice === 'new') {
+      try {
+        note = `The earlier session is kept as ${keepAside(sessionFile, 'kept')}; a new job starts.`;
+      } catch (e) {
+        return { ok: false, message: `${sessionFile}: the earlier session could not be kept aside (${writeProblem(e)}), so it was left as it was; move it away, or start with --session FILE` };
+      }
+    }
     const base = loadRules(rulesDir);
     if (!base.ok) return { ok: false, message: formatIssues(base.issues) };
     const flow = buildFlow(base.value);
-    let initialAnswers: Answer[] = [];
+    let restored: Restored = { answers: [], progress: {} };
     if (saved) {
-      const a = sessionAnswers(sessionFile, saved, flow);
-      if (!a.ok) return { ok: false, message: formatIssues(a.issues) };
-      initialAnswers = a.value;
+      const r = restoreSession(sessionFile, saved, flow);
+      if (!r.ok) return { ok: false, message: `${formatIssues(r.issues)}\n${sessionFile}: ${keptAsideSaying(sessionFile)}` };
+      restored = r.value;
     }
     return {
       ok: true,
+      ...(note ? { note } : {}),
       props: {
         ctx: { flow, machineFile, work: { role: role as Role, apprenticesMayTestLive: settings.value.apprenticesMayTestLive ?? true, remoteAuthorisationAllowed: settings.value.remoteAuthorisationAllowed ?? false }, earlierJobs: earlierJobsFor(opts, base.value) },
         engine: buildEngine(base.value),
         safetyNotice: base.value.safety.notice,
-        initialAnswers,
+        initialAnswers: restored.answers,
         initialWork: saved?.work ?? [],
+        initialProgress: restored.progress,
         color,
         chart: (job) => chartText({ machine: job.machine, readings: job.readings }, process.stdout.columns ?? 80, color),
-        onAnswers: (answers, work) => writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work }),
+        onAnswers: (answers, work, progress) => {
+          try {
+            writeSession(sessionFile, { rules: rulesDir, machineFile, answers, work, progress });
+            return undefined;
+          } catch (e) {
+            return `The session could not be saved (${writeProblem(e)}): the last answers are not kept if this stops. Type save once the result is shown.`;
+          }
+        },
         onSave: (answers, outcome, work) => saveJob({ ...jobFromAnswers(answers, machineFile, work), ...(outcome.length ? { outcome: outcomeOf(outcome, today()) } : {}) }),
-        onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role, rulesDir),
+        onReport: (state) => reportFromDialogue(state, flow, machineFile, opts.report, role as Role, rulesDir, { force: opts.force, inputs: [sessionFile, opts.machine], ours: reportsWritten }),
         onRecord: (answers, outcome, work) => recordJob({ ...jobFromAnswers(answers, machineFile, work), outcome: outcomeOf(outcome, today()) }, base.value, opts),
       },
     };
   };
+  const ask = existing ? `A job is kept in the session ${sessionFile} (${existing.answers.length} answers, saved ${existing.savedAt}). Type resume to go on with it, or new to start a new job (the earlier one is kept aside).` : undefined;
   const { runDialogue } = await install.loadScreens();
-  const ended = await runDialogue({ notice: safety.value.notice, color, prepare });
+  const ended = await runDialogue({ notice: visible(safety.value.notice), color, prepare, ...(ask ? { ask } : {}) });
   if (ended.message) process.stderr.write(withProgramName(ended.message) + '\n');
   if (ended.code !== 0 && ended.code !== 2) process.stderr.write(resumeHint(sessionFile, opts.session !== undefined) + '\n');
   return ended.code;
@@ -395,6 +430,15 @@ function resumeHint(sessionFile: string, named: boolean): string {
   return `dctriage: stopped. The session is kept in ${sessionFile}; to carry on where you were, run: ${resume}`;
 }
 
+/** A session whose values are wrong is moved aside; the words say where. */
+function keptAsideSaying(file: string): string {
+  try {
+    return `this session cannot be resumed, so it was kept as ${keepAside(file, 'unreadable')} and nothing in it is lost; run dctriage to start a new job`;
+  } catch (e) {
+    return `this session cannot be resumed, and could not be kept aside (${writeProblem(e)}): move it away by hand`;
+  }
+}
+
 /** Writes the job beside the fitter as a dc-case/1 file that never replaces another. */
 function saveJob(draft: unknown): string {
   const stem = `dctriage-job-${today()}`;
@@ -402,7 +446,7 @@ function saveJob(draft: unknown): string {
     const w = writeNewFile(process.cwd(), stem, '.json', JSON.stringify(draft, null, 2) + '\n');
     return `Saved the job as ${w.file}`;
   } catch (e) {
-    return `Could not save the job in ${process.cwd()}: ${(e as Error).message}. The session is still kept; try from a folder you can write to.`;
+    return `Could not save the job in ${process.cwd()}: ${writeProblem(e)}. The session is still kept; try from a folder you can write to.`;
   }
 }
 
@@ -416,16 +460,17 @@ const terminalWidth = () => process.stdout.columns || Number(process.env.COLUMNS
 const useColor = () => wantsColor(process.stdout);
 
 /** The job report from the dialogue as it stands: the last result shown and the work done since. */
-async function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role, rulesDir: string): Promise<string> {
+async function reportFromDialogue(state: DialogueState, flow: Flow, machineFile: unknown, path: string | undefined, role: Role, rulesDir: string, target: ReportTarget): Promise<string> {
   const draft = jobFromAnswers(state.answers, machineFile, state.work);
   const parsed = parseDraft(draft);
   const result = latestDiagnosis(state);
   if (!parsed.ok || !result) return 'No report yet: the result is not on screen.';
   try {
-    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString(), timeZone: localTimeZone(), producedBy: producedBy(rulesDir) }, process.cwd());
+    const where = await writeReport(path, { job: parsed.job, raw: draft as Record<string, unknown>, diagnosis: result, safety: flow.base.safety, work: state.work, role, generatedAt: new Date().toISOString(), timeZone: localTimeZone(), producedBy: producedBy(rulesDir) }, process.cwd(), target);
     return `Job report written to ${where}`;
   } catch (e) {
-    return `Could not write the report: ${(e as Error).message}. The session is kept.`;
+    const i = reportIssue(path ?? process.cwd(), e);
+    return `Could not write the report: ${i.file}: ${i.message}. The session is kept.`;
   }
 }
 
@@ -450,6 +495,16 @@ function historyForReport(asset: string | undefined, opts: { rules?: string | un
   return h.ok ? h.value : undefined;
 }
 
+/** Why the report was not written: refused (bad input, exit 2) or the write failed (exit 74). */
+function reportIssue(file: string, e: unknown): Issue {
+  if (e instanceof ReportRefused) return { code: 'invalid', file: e.file, path: '', message: `not writing the report there: it ${e.reason}` };
+  return { code: 'unwritable', file: e instanceof WriteFailed ? e.file : file, path: '', message: `could not write the report: ${writeProblem(e)}` };
+}
+
+function causeIdsOf(base: RuleBase): Set<string> {
+  return new Set(base.causes.map((c) => c.id));
+}
+
 /** The dialogue's line on an asset's earlier jobs, from the cases folder in use, read when first asked; nothing if it cannot be read. */
 function earlierJobsFor(opts: { rules?: string | undefined; cases?: string | undefined }, base: RuleBase): (asset: string) => string | undefined {
   let jobs: RecordedJob[] | undefined;
@@ -462,10 +517,6 @@ function earlierJobsFor(opts: { rules?: string | undefined; cases?: string | und
     }
     return earlierJobsNote(assetHistory(asset, jobs, titles), today());
   };
-}
-
-function causeIdsOf(base: RuleBase): Set<string> {
-  return new Set(base.causes.map((c) => c.id));
 }
 
 let watchingStdout = false;
@@ -486,6 +537,9 @@ function watchStdout(): void {
  */
 export async function runCli(argv: string[], from: Install): Promise<void> {
   install = from;
+  // A worker thread of cases check (see parallel-case-check.ts) serves batches, nothing else.
+  const worker = caseCheckWorkerJob();
+  if (worker) return runCaseCheckWorker(worker, loadRules);
   watchStdout();
   try {
     process.exitCode = await main(argv);

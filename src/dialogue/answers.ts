@@ -4,6 +4,7 @@
  */
 import { describeQuantityError, DIMENSIONS, normalizeQuantityText, parseQuantity } from '../units/quantity.js';
 import { quote } from '../units/quote.js';
+import { spacedControls } from '../knowledge/visible-text.js';
 import type { DialogueQuestion } from './questions.js';
 import { editDistance as distance } from './edit-distance.js';
 import { seriesFromText } from './series-answer.js';
@@ -13,21 +14,28 @@ export type AnswerValue = { kind: 'unknown' } | { kind: 'one'; value: string } |
 export type ParsedAnswer = { ok: true; value: AnswerValue; shown: string } | { ok: false; reason: string };
 
 const UNKNOWN_WORDS = new Set(['', 'unknown', '?', '-', 'skip', 'dunno', "don't know", 'n/a', 'na']);
-/** Typed text beyond this is cut before reading: nobody types a 300-character answer. */
+/** A choice, a quantity or a command is short; longer input is refused, never cut. */
 export const MAX_ANSWER_LENGTH = 200;
+/** Free text (a finding, notes) may be a pasted paragraph. */
+export const MAX_TEXT_LENGTH = 2000;
 
-/** A series is typed on one line: 200 bar-to-bar readings and their unit fit. */
-export const MAX_SERIES_LENGTH = 2000;
+export function cleanInput(text: string): string {
+  // Control characters (pasted escape sequences, tabs, line breaks of a paste) become spaces; spaces are kept single.
+  return spacedControls(text).replace(/\s+/g, ' ').trim();
+}
 
-export function cleanInput(text: string, max = MAX_ANSWER_LENGTH): string {
-  // Control characters (pasted escape sequences, tabs) are dropped; spaces are kept single.
-  // eslint-disable-next-line no-control-regex
-  return text.replace(/[\u0000-\u001f\u007f]/g, ' ').replace(/\s+/g, ' ').trim().slice(0, max);
+/** Why an answer is too long to take, naming the limit; nothing is cut. Free text and a series (200 bar-to-bar readings) may be long. */
+export function lengthProblem(text: string, long: boolean): string | undefined {
+  const limit = long ? MAX_TEXT_LENGTH : MAX_ANSWER_LENGTH;
+  if (text.length <= limit) return undefined;
+  return `that is ${text.length} characters, and ${long ? 'text' : 'an answer'} here is limited to ${limit}: nothing was taken; shorten it and enter it again`;
 }
 
 export function parseAnswer(q: DialogueQuestion, typed: string): ParsedAnswer {
   const a = q.answer;
-  const text = cleanInput(typed, a.kind === 'series' ? MAX_SERIES_LENGTH : MAX_ANSWER_LENGTH);
+  const text = cleanInput(typed);
+  const tooLong = lengthProblem(text, a.kind === 'text' || a.kind === 'series');
+  if (tooLong) return { ok: false, reason: tooLong };
   if (UNKNOWN_WORDS.has(text.toLowerCase())) return { ok: true, value: { kind: 'unknown' }, shown: 'unknown' };
   switch (a.kind) {
     case 'series': {

@@ -5,7 +5,7 @@
  * an event tagged with the answers' version it was made for.
  */
 import type { CheckResult, Diagnosis } from '../engine/diagnose.js';
-import { parseAnswer, cleanInput } from './answers.js';
+import { parseAnswer, cleanInput, lengthProblem } from './answers.js';
 import { nextStep, type Flow, type Next } from './flow.js';
 import type { DialogueQuestion } from './questions.js';
 import { jobFromAnswers, parseDraft, type Answer } from './job.js';
@@ -56,6 +56,30 @@ export interface DialogueState {
   awaitingUpdate?: string | undefined;
   /** A reading far from the plate, held until the fitter says to keep it. */
   confirming?: { answer: Answer; says: string } | undefined;
+  /** From a resumed session: the check prompts and the outcome answered so far, put back once the result is on screen. */
+  restore?: SavedProgress | undefined;
+}
+
+/**
+ * What a session keeps besides the answers and the checks worked: whether the questions had
+ * ended, a check's prompts answered so far (the isolation record among them) and the outcome
+ * being recorded, so that a kill at any prompt loses no answer.
+ */
+export interface SavedProgress {
+  endedBecause?: string | undefined;
+  pendingWork?: { kind: WorkEntry['kind']; check: string; got: Partial<Record<WorkPrompt['id'], string>>; firstIsolated: boolean } | undefined;
+  outcome?: Answer[] | undefined;
+}
+
+export function progressOf(state: DialogueState): SavedProgress {
+  const p = state.pendingWork;
+  // Until a resumed result is back on screen, what it will restore is still the progress.
+  if (state.restore) return state.restore;
+  return {
+    ...(state.phase === 'result' || state.phase === 'recording' || state.phase === 'finishing' ? { endedBecause: state.endedBecause } : {}),
+    ...(p ? { pendingWork: { kind: p.kind, check: p.check.id, got: p.got, firstIsolated: p.firstIsolated } } : {}),
+    ...(state.phase === 'recording' ? { outcome: state.outcome } : {}),
+  };
 }
 
 export type DialogueEvent =
@@ -89,17 +113,29 @@ export const COMMANDS = {
   help: 'these commands',
 } as const;
 
-export function initialState(answers: Answer[] = [], work: WorkEntry[] = []): DialogueState {
-  // A session with checks worked was at the result: it reopens there, on the checks, once diagnosed.
-  const phase = work.length ? 'finishing' : answers.length ? 'asking' : 'notice';
-  return { phase, answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [], work, ...(work.length ? { endedBecause: 'the session was resumed at its checks' } : {}) };
+export function initialState(answers: Answer[] = [], work: WorkEntry[] = [], progress: SavedProgress = {}): DialogueState {
+  const state: DialogueState = { phase: answers.length ? 'asking' : 'notice', answers, log: answers.map((answer) => ({ kind: 'answer', answer })), version: 0, outcome: [], work };
+  // The questions had ended (or checks were being worked): the result comes back with the first diagnosis, and with it the prompts left open.
+  if (answers.length && (progress.endedBecause !== undefined || work.length)) return { ...state, phase: 'finishing', endedBecause: progress.endedBecause ?? 'the session was resumed at its checks', restore: progress };
+  return state;
 }
 
 /** Ends the questions: the result shows at once if the diagnosis is current, else when it comes. */
 function finish(state: DialogueState, because: string): DialogueState {
   const d = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
   if (!d) return { ...state, phase: 'finishing', endedBecause: because };
-  return { ...state, phase: 'result', endedBecause: because, log: [...state.log, { kind: 'result', diagnosis: d, because }] };
+  const shown: DialogueState = { ...state, phase: 'result', endedBecause: because, restore: undefined, log: [...state.log, { kind: 'result', diagnosis: d, because }] };
+  return restoreProgress(shown, state.restore);
+}
+
+/** Puts back the check prompts or the outcome a resumed session had open. */
+function restoreProgress(state: DialogueState, saved: SavedProgress | undefined): DialogueState {
+  if (!saved) return state;
+  const p = saved.pendingWork;
+  const check = p ? resultChecks(state).find((c) => c.id === p.check) : undefined;
+  if (p && check) return { ...state, pendingWork: { kind: p.kind, check, got: p.got, firstIsolated: p.firstIsolated } };
+  if (saved.outcome?.length) return { ...state, phase: 'recording', outcome: saved.outcome };
+  return state;
 }
 
 /**
@@ -154,10 +190,21 @@ export function reduce(state: DialogueState, event: DialogueEvent, ctx: Dialogue
   }
 }
 
+/** Whether the prompt waiting takes free text (a finding, notes, a name), where a pasted paragraph is one answer. */
+export function expectsFreeText(state: DialogueState, ctx: DialogueContext): boolean {
+  if (state.pendingWork) return workPrompt(state, ctx)?.id !== 'authorisation';
+  if (state.phase === 'recording') return outcomeStep(state, ctx)?.answer.kind === 'text';
+  if (state.phase !== 'asking') return false;
+  const step = currentStep(state, ctx);
+  return step.kind === 'ask' && step.question.answer.kind === 'text';
+}
+
 function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueContext): DialogueState {
   const text = cleanInput(typed);
   const word = text.toLowerCase();
   const base = { ...state, error: undefined, confirming: undefined };
+  const tooLong = state.phase === 'notice' ? undefined : lengthProblem(text, expectsFreeText(state, ctx));
+  if (tooLong) return { ...base, error: tooLong };
   if (state.phase === 'notice') return word === 'done' ? finishAsked({ ...base, phase: 'asking' }, ctx) : { ...base, phase: 'asking' };
   if (state.confirming && ['yes', 'y', 'keep'].includes(word)) {
     const answer = state.confirming.answer;
@@ -190,6 +237,8 @@ function onInput(state: DialogueState, typed: string, at: string, ctx: DialogueC
   const parsed = parseAnswer(step.question, text);
   if (!parsed.ok) return { ...base, error: parsed.reason };
   const answer: Answer = { questionId: step.question.id, target: step.question.target, value: parsed.value, shown: parsed.shown, at };
+  const problem = newProblem(state.answers, [...state.answers, answer], ctx);
+  if (problem) return { ...base, error: `not taken: ${problem}` };
   const far = farFromPlate(state, answer, ctx);
   if (far) return { ...base, confirming: { answer, says: far } };
   const target = step.question.target;
@@ -205,6 +254,21 @@ function farFromPlate(state: DialogueState, answer: Answer, ctx: DialogueContext
   if (!parsed.ok) return undefined;
   const name = answer.target.name;
   return computeExpectations({ machine: parsed.job.machine, readings: parsed.job.readings }).findings.find((f) => f.code === 'reading-far-from-plate' && f.reading === name)?.says;
+}
+
+/**
+ * Why an answer would make the job one the engine cannot read (a zero rated voltage, say), when the
+ * job could be read before it: taken, it would leave the dialogue waiting for a diagnosis that never comes.
+ */
+function newProblem(before: Answer[], after: Answer[], ctx: DialogueContext): string | undefined {
+  const unreadable = (answers: Answer[]) => {
+    const draft = jobFromAnswers(answers, ctx.machineFile);
+    if (draft.machine.connection === undefined) return undefined;
+    const parsed = parseDraft(draft);
+    return parsed.ok ? undefined : parsed.reason;
+  };
+  const now = unreadable(after);
+  return now && !unreadable(before) ? now : undefined;
 }
 
 const DEFAULT_WORK_RULES: WorkRules = { role: 'fitter', apprenticesMayTestLive: true };

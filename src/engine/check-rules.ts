@@ -11,7 +11,7 @@ import type { Condition, Leaf } from '../knowledge/rulebase-schema.js';
 import { quantitiesFedBy } from '../model/feeds.js';
 
 export interface RuleFinding {
-  kind: 'unreachable-cause' | 'never-fires' | 'ruled-out-and-supported' | 'unused-question' | 'placeholder-text' | 'schema' | 'case-out-of-top-3';
+  kind: 'unreachable-cause' | 'never-fires' | 'ruled-out-and-supported' | 'unused-question' | 'placeholder-text' | 'schema' | 'case-out-of-top-3' | 'control-character';
   file: string;
   /** The rule, cause, question or case it is about. */
   about: string;
@@ -56,7 +56,7 @@ function contradiction(leaves: Leaf[]): string | undefined {
 }
 
 export function reviewRuleBase(base: RuleBase): RuleFinding[] {
-  const findings: RuleFinding[] = [];
+  const findings: RuleFinding[] = (base.controlText ?? []).map((i) => ({ kind: 'control-character', file: i.file, about: i.path, message: i.message }));
   const causesFile = join(base.dir, 'causes.json');
   for (const cause of base.causes) {
     if (!base.rules.some(({ rule }) => rule.kind === 'evidence' && rule.cause === cause.id && rule.weight > 0)) {

@@ -28,11 +28,11 @@ export function fillTemplate(template: string, facts: Facts, e: Expectation): st
     // {fit:extraResistance}: the fit's own sentence with its numbers (src/model/fits/describe.ts).
     if (kind === 'fit') return (facts.fitSays as Record<string, string> | undefined)?.[name] ?? whole;
     if (kind === 'obs') {
-      const spec = OBSERVATIONS[name as ObservationName];
+      const spec = Object.hasOwn(OBSERVATIONS, name) ? OBSERVATIONS[name as ObservationName] : undefined;
       const answer = facts[name];
       return spec && typeof answer === 'string' ? (spec.values as Record<string, string>)[answer] ?? answer : 'unknown';
     }
-    const q = e.quantities[name as QuantityName];
+    const q = Object.hasOwn(e.quantities, name) ? e.quantities[name as QuantityName] : undefined;
     if (!q) return whole;
     if (kind === 'ratio') return q.ratio === null ? '?' : `${Math.round(q.ratio * 100)} %`;
     const x = kind === 'value' ? q.value : q.measured;
@@ -82,21 +82,21 @@ export function describeTree(tree: unknown, e: Expectation, derivedWords: Derive
     const derived = derivedWords(leaf.fact);
     if (derived !== undefined) return derived;
     if (leaf.fact === 'symptoms') return SYMPTOMS[leaf.value as keyof typeof SYMPTOMS] ?? String(leaf.value);
-    if (leaf.fact in OBSERVATIONS) {
+    if (Object.hasOwn(OBSERVATIONS, leaf.fact)) {
       const spec = OBSERVATIONS[leaf.fact as ObservationName];
-      return `${spec.says}: ${(spec.values as Record<string, string>)[String(leaf.factResult)] ?? String(leaf.factResult).replace(/-/g, ' ')}`;
+      return `${spec.says}: ${Object.hasOwn(spec.values, String(leaf.factResult)) ? (spec.values as Record<string, string>)[String(leaf.factResult)] : String(leaf.factResult).replace(/-/g, ' ')}`;
     }
     if (leaf.fact === 'findings') return e.findings.find((f) => f.code === leaf.value)?.says ?? String(leaf.value).replace(/-/g, ' ');
-    if (name && name in QUANTITY_LABELS) {
-      const q = e.quantities[name as QuantityName];
+    if (name && Object.hasOwn(QUANTITY_LABELS, name)) {
+      const q = Object.hasOwn(e.quantities, name) ? e.quantities[name as QuantityName] : undefined;
       const label = QUANTITY_LABELS[name as QuantityName];
       if (leaf.fact === 'ratio' && q && q.measured !== null) {
         return `${label} ${withUnit(q.measured, q.unit)} is ${Math.round((q.ratio ?? 0) * 100)} % of the expected ${withUnit(q.value, q.unit)}`;
       }
       if (q) return `${label} ${withUnit(leaf.fact === 'measured' && q.measured !== null ? q.measured : q.value, q.unit)} ${OPERATOR_WORDS[leaf.operator] ?? leaf.operator} ${describeValue(leaf.value, e)}`;
     }
-    if (typeof leaf.factResult === 'boolean' && leaf.fact in MACHINE_TRAITS) return MACHINE_TRAITS[leaf.fact]![leaf.factResult ? 0 : 1];
-    if (leaf.fact in MACHINE_WORDS) return `${MACHINE_WORDS[leaf.fact]}: ${String(leaf.factResult).replace(/-/g, ' ')}`;
+    if (typeof leaf.factResult === 'boolean' && Object.hasOwn(MACHINE_TRAITS, leaf.fact)) return MACHINE_TRAITS[leaf.fact]![leaf.factResult ? 0 : 1];
+    if (Object.hasOwn(MACHINE_WORDS, leaf.fact)) return `${MACHINE_WORDS[leaf.fact]}: ${String(leaf.factResult).replace(/-/g, ' ')}`;
     return `${leaf.fact} ${leaf.operator} ${JSON.stringify(leaf.value)}`;
   });
   return parts.join('; ');

@@ -41,16 +41,21 @@ function splitBaseAndTopSpeed(raw: unknown): unknown {
   return { ...plate, speed: unit ? `${m[1]} ${unit}` : m[1], maxSpeed: unit ? `${m[2]} ${unit}` : m[2] };
 }
 
+/** A rated value: the model divides by it, so zero is refused by name rather than computed into NaN. */
+function rated(dimension: Dimension, description: string) {
+  return quantity(dimension, description).refine((v) => v > 0, { error: 'a rated value of 0 cannot be used: the expected readings are worked out per unit of it; leave the field out if it is not known' });
+}
+
 const nameplateFields = z.strictObject({
-  armatureVoltage: quantity('voltage', 'rated armature voltage').optional(),
-  armatureCurrent: quantity('current', 'rated armature current').optional(),
-  lineCurrent: quantity('current', 'rated supply current, armature and shunt field together').optional(),
-  speed: quantity('speed', 'rated (full-load) speed, or base and top speed written as "1750/2300 r/min"').optional(),
-  maxSpeed: quantity('speed', 'top of the field-weakening range (drive motors)').optional(),
-  noLoadSpeed: quantity('speed', 'no-load speed').optional(),
-  power: quantity('power', 'rated output').optional(),
-  fieldVoltage: quantity('voltage', 'rated field voltage').optional(),
-  fieldCurrent: quantity('current', 'rated (hot) field current').optional(),
+  armatureVoltage: rated('voltage', 'rated armature voltage').optional(),
+  armatureCurrent: rated('current', 'rated armature current').optional(),
+  lineCurrent: rated('current', 'rated supply current, armature and shunt field together').optional(),
+  speed: rated('speed', 'rated (full-load) speed, or base and top speed written as "1750/2300 r/min"').optional(),
+  maxSpeed: rated('speed', 'top of the field-weakening range (drive motors)').optional(),
+  noLoadSpeed: rated('speed', 'no-load speed').optional(),
+  power: rated('power', 'rated output').optional(),
+  fieldVoltage: rated('voltage', 'rated field voltage').optional(),
+  fieldCurrent: rated('current', 'rated (hot) field current').optional(),
   insulationClass: z.enum(INSULATION_CLASSES).optional().meta({ description: 'thermal class (IEC 60085)' }),
 });
 const nameplate = z.preprocess(splitBaseAndTopSpeed, nameplateFields);

@@ -3,16 +3,17 @@
  * Cross-references (causes, checks, hazards, warnings, facts, observation answers, quantity
  * names, shared conditions) are checked here so the engine can trust what it is given.
  */
-import { readdirSync } from 'node:fs';
+import { readdirSync, statSync, type Dirent, type Stats } from 'node:fs';
 import type * as z from 'zod';
 import { join } from 'node:path';
 import { QUANTITY_NAMES } from '../model/quantity-names.js';
 import { TEST_FINDINGS } from '../model/series/findings.js';
 import { FIT_FACT_FIELDS, HEALTHY_FIT_FIELDS, HYPOTHESIS_IDS } from '../model/fits/index.js';
 import { READING_FIELDS } from './case-schema.js';
-import { readJsonFile, validate } from './read-json.js';
+import { duplicateKeyIssue, readJsonFile, validate } from './read-json.js';
+import { controlPaths, withVisibleText } from './visible-text.js';
 import { parseKeptFileAsIs, sealKey, type RuleSeal } from './rule-seal.js';
-import { failed, ok, type Issue, type Result } from './result.js';
+import { failed, failedWith, ok, type Issue, type Result } from './result.js';
 import {
   CATALOGUE_FILES,
   causesFile,
@@ -49,6 +50,8 @@ export interface RuleBase {
   safety: Safety;
   conditions: Record<string, Condition>;
   rules: LoadedRule[];
+  /** Text holding control characters, shown made visible (see visible-text.ts); `rules check` reports each. */
+  controlText?: Issue[];
 }
 
 /** Facts every job has (some may be unknown), besides observations and derived facts. */
@@ -86,16 +89,30 @@ export interface LoadOptions {
 }
 
 export function loadRuleBase(dir: string, options: LoadOptions = {}): Result<RuleBase> {
-  let names: string[];
+  let entries: Dirent[];
   try {
-    names = readdirSync(dir, { withFileTypes: true })
-      .filter((d) => d.isFile() && d.name.endsWith('.json'))
-      .map((d) => d.name)
-      .sort();
+    entries = readdirSync(dir, { withFileTypes: true }).filter((d) => d.name.endsWith('.json'));
   } catch {
     return failed({ code: 'unreadable', file: dir, path: '', message: 'rule folder cannot be read' });
   }
   const issues: Issue[] = [];
+  const names: string[] = [];
+  // A link is followed to a regular file; anything else named *.json is refused by name, never skipped.
+  for (const d of entries) {
+    if (d.isFile()) names.push(d.name);
+    else if (d.isSymbolicLink()) {
+      let target: Stats | undefined;
+      try {
+        target = statSync(join(dir, d.name));
+      } catch {
+        target = undefined;
+      }
+      if (target?.isFile()) names.push(d.name);
+      else issues.push({ code: 'unreadable', file: join(dir, d.name), path: '', message: target ? 'is a link to something that is not a regular file' : 'is a link to nothing (its target does not exist)' });
+    } else if (!d.isDirectory()) issues.push({ code: 'unreadable', file: join(dir, d.name), path: '', message: 'is not a regular file' });
+  }
+  names.sort();
+  const controlText: Issue[] = [];
   const read = <S extends z.ZodType>(name: string, schemaName: string, schema: S): z.output<S> | undefined => {
     const file = join(dir, name);
     const raw = readJsonFile(file);
@@ -103,15 +120,20 @@ export function loadRuleBase(dir: string, options: LoadOptions = {}): Result<Rul
     const key = options.seal || options.passed ? sealKey(schemaName, raw.value.text) : '';
     // These very bytes passed this schema at build time, and its parse returned them unchanged.
     if (options.seal?.has(key)) return raw.value.value as z.output<S>;
+    const twice = duplicateKeyIssue(file, raw.value.text);
+    if (twice) return void issues.push(twice);
     const v = validate(file, raw.value.value, schema);
     if (!v.ok) return void issues.push(...v.issues);
     if (options.passed && parseKeptFileAsIs(raw.value.value, v.value)) options.passed(key);
-    return v.value;
+    const controls = controlPaths(v.value);
+    if (controls.length === 0) return v.value;
+    controlText.push(...controls.map((path) => ({ code: 'invalid' as const, file, path, message: 'holds a control character (an escape sequence, a line break or a direction override): shown as \\u…, so it cannot act on a terminal' })));
+    return withVisibleText(v.value);
   };
   for (const required of Object.keys(CATALOGUE_FILES)) {
     if (!names.includes(required)) issues.push({ code: 'rule-base', file: join(dir, required), path: '', message: 'missing: every rule folder has this file' });
   }
-  if (issues.length) return failed(...issues);
+  if (issues.length) return failedWith(issues);
 
   const causes = read('causes.json', 'causes.json', causesFile)?.causes;
   const checksRead = read('checks.json', 'checks.json', checksFile);
@@ -120,14 +142,14 @@ export function loadRuleBase(dir: string, options: LoadOptions = {}): Result<Rul
   const safety = read('safety.json', 'safety.json', safetyFile);
   const conditions = read('conditions.json', 'conditions.json', sharedConditionsFile)?.conditions;
   const rules: LoadedRule[] = [];
-  for (const name of names.filter((n) => !(n in CATALOGUE_FILES))) {
+  for (const name of names.filter((n) => !Object.hasOwn(CATALOGUE_FILES, n))) {
     const f = read(name, 'rule-file', ruleFile);
     f?.rules.forEach((rule, k) => rules.push({ rule, file: join(dir, name), at: `rules[${k}]` }));
   }
-  if (issues.length || !causes || !checks || !questions || !safety || !conditions) return failed(...issues);
-  const base: RuleBase = { dir, causes, checks, retiredChecks: checksRead?.retired, questions, safety, conditions, rules };
+  if (issues.length || !causes || !checks || !questions || !safety || !conditions) return failedWith(issues);
+  const base: RuleBase = { dir, causes, checks, retiredChecks: checksRead?.retired, questions, safety, conditions, rules, ...(controlText.length ? { controlText } : {}) };
   const cross = crossCheck(base);
-  return cross.length ? failed(...cross) : ok(base);
+  return cross.length ? failedWith(cross) : ok(base);
 }
 
 /**
@@ -206,18 +228,22 @@ export function crossCheck(base: RuleBase): Issue[] {
     }
     if (rule.kind === 'warning' && !warningIds.has(rule.warning)) issues.push(issue(file, `${where}.warning`, `"${rule.warning}" is not a warning in safety.json`));
     issues.push(...checkCondition(rule.conditions, file, `${where}.conditions`, derived, base.conditions));
+    if (rule.says) issues.push(...checkTemplate(rule.says, file, `${where}.says`));
   }
   for (const [name, cond] of Object.entries(base.conditions)) issues.push(...checkCondition(cond, f('conditions.json'), `conditions.${name}`, derived, base.conditions));
   base.questions.forEach((q, k) => {
     const where = `questions[${k}] (${q.id})`;
-    if (q.answer.kind === 'choice' && !(q.answer.observation in OBSERVATIONS)) issues.push(issue(f('questions.json'), `${where}.answer.observation`, `"${q.answer.observation}" is not an observation of dc-case/1`));
-    if (q.answer.kind === 'quantity' && !(q.answer.reading in READING_FIELDS)) issues.push(issue(f('questions.json'), `${where}.answer.reading`, `"${q.answer.reading}" is not a reading of dc-case/1`));
+    if (q.answer.kind === 'choice' && !Object.hasOwn(OBSERVATIONS, q.answer.observation)) issues.push(issue(f('questions.json'), `${where}.answer.observation`, `"${q.answer.observation}" is not an observation of dc-case/1`));
+    if (q.answer.kind === 'quantity' && !Object.hasOwn(READING_FIELDS, q.answer.reading)) issues.push(issue(f('questions.json'), `${where}.answer.reading`, `"${q.answer.reading}" is not a reading of dc-case/1`));
     if (q.askWhen) issues.push(...checkCondition(q.askWhen, f('questions.json'), `${where}.askWhen`, derived, base.conditions));
     if (q.askFirstWhen) issues.push(...checkCondition(q.askFirstWhen, f('questions.json'), `${where}.askFirstWhen`, derived, base.conditions));
     q.askAfter?.forEach((after, j) => {
       if (!base.questions.some((x) => x.id === after) && !MACHINE_QUESTION_IDS.has(after)) issues.push(issue(f('questions.json'), `${where}.askAfter[${j}]`, `"${after}" is not a question`));
     });
   });
+  for (const c of sharedConditionCycles(base.conditions)) {
+    issues.push({ code: 'cycle', file: f('conditions.json'), path: `conditions.${c[0]}`, message: c.length === 2 ? `shared condition "${c[0]}" refers to itself` : `shared conditions refer to each other in a cycle: ${c.join(' → ')}` });
+  }
   const cycle = findDeriveCycle(base);
   if (cycle) issues.push({ code: 'cycle', file: cycle.file, path: cycle.at, message: `derived facts depend on each other in a cycle: ${cycle.path.join(' → ')}` });
   return issues;
@@ -227,7 +253,7 @@ function checkCondition(c: Condition, file: string, path: string, derived: Set<s
   if ('all' in c) return c.all.flatMap((x, k) => checkCondition(x, file, `${path}.all[${k}]`, derived, shared));
   if ('any' in c) return c.any.flatMap((x, k) => checkCondition(x, file, `${path}.any[${k}]`, derived, shared));
   if ('not' in c) return checkCondition(c.not, file, `${path}.not`, derived, shared);
-  if ('condition' in c) return c.condition in shared ? [] : [issue(file, `${path}.condition`, `no shared condition "${c.condition}" in conditions.json`)];
+  if ('condition' in c) return Object.hasOwn(shared, c.condition) ? [] : [issue(file, `${path}.condition`, `no shared condition "${c.condition}" in conditions.json`)];
   const out: Issue[] = [];
   const kind = factKind(c.fact, derived);
   if (kind === undefined) return [issue(file, `${path}.fact`, `unknown fact "${c.fact}": not an observation, a derived fact or one of ${Object.keys(STATIC_FACTS).join(', ')}`)];
@@ -261,9 +287,20 @@ function checkCondition(c: Condition, file: string, path: string, derived: Set<s
   return out;
 }
 
+/** Placeholders of a `says` sentence name a quantity the model computes or an observation, as own names. */
+function checkTemplate(says: string, file: string, path: string): Issue[] {
+  const out: Issue[] = [];
+  for (const [whole, kind, name] of says.matchAll(/\{(value|measured|ratio|obs):?\.?([A-Za-z0-9-]+)\}/g)) {
+    const known = kind === 'obs' ? Object.hasOwn(OBSERVATIONS, name!) : (QUANTITY_NAMES as string[]).includes(name!);
+    if (!known) out.push(issue(file, path, `${whole} names ${kind === 'obs' ? 'no observation' : 'no quantity the model computes'}: "${name}"`));
+  }
+  return out;
+}
+
 function factKind(fact: string, derived: Set<string>): 'observation' | 'derived' | (typeof STATIC_FACTS)[keyof typeof STATIC_FACTS] | undefined {
-  if (fact in STATIC_FACTS) return STATIC_FACTS[fact as keyof typeof STATIC_FACTS];
-  if (fact in OBSERVATIONS) return 'observation';
+  // Own properties only: "toString" or "constructor" is not a fact because every object has one.
+  if (Object.hasOwn(STATIC_FACTS, fact)) return STATIC_FACTS[fact as keyof typeof STATIC_FACTS];
+  if (Object.hasOwn(OBSERVATIONS, fact)) return 'observation';
   if (derived.has(fact)) return 'derived';
   return undefined;
 }
@@ -274,7 +311,7 @@ export function leavesOf(c: Condition, shared: Record<string, Condition>, seen =
   if ('any' in c) return c.any.flatMap((x) => leavesOf(x, shared, seen));
   if ('not' in c) return leavesOf(c.not, shared, seen);
   if ('condition' in c) {
-    if (seen.has(c.condition) || !shared[c.condition]) return [];
+    if (seen.has(c.condition) || !Object.hasOwn(shared, c.condition)) return [];
     return leavesOf(shared[c.condition]!, shared, new Set([...seen, c.condition]));
   }
   return [c];
@@ -283,6 +320,39 @@ export function leavesOf(c: Condition, shared: Record<string, Condition>, seen =
 /** Facts a condition reads, shared conditions expanded. */
 export function factsRead(c: Condition, shared: Record<string, Condition>): string[] {
   return leavesOf(c, shared).flatMap((l) => [l.fact, ...(typeof l.value === 'object' && !Array.isArray(l.value) ? [l.value.fact] : [])]);
+}
+
+/** The shared conditions a condition names, without following them; iterative, so depth costs no stack. */
+function conditionRefs(c: Condition): string[] {
+  const refs: string[] = [];
+  const todo: Condition[] = [c];
+  for (let next = todo.pop(); next; next = todo.pop()) {
+    if ('all' in next) todo.push(...next.all);
+    else if ('any' in next) todo.push(...next.any);
+    else if ('not' in next) todo.push(next.not);
+    else if ('condition' in next) refs.push(next.condition);
+  }
+  return refs;
+}
+
+/**
+ * Each cycle among shared conditions, as the names around it (first name repeated at the end):
+ * expanding one would never end.
+ */
+export function sharedConditionCycles(shared: Record<string, Condition>): string[][] {
+  const cycles: string[][] = [];
+  const state = new Map<string, 'open' | 'done'>();
+  const visit = (name: string, path: string[]) => {
+    state.set(name, 'open');
+    for (const ref of conditionRefs(shared[name]!)) {
+      if (!Object.hasOwn(shared, ref)) continue;
+      if (state.get(ref) === 'open') cycles.push([...(ref === name ? [] : path.slice(path.indexOf(ref))), name, ref]);
+      else if (!state.has(ref)) visit(ref, [...path, name]);
+    }
+    state.set(name, 'done');
+  };
+  for (const name of Object.keys(shared).sort()) if (!state.has(name)) visit(name, []);
+  return cycles;
 }
 
 function findDeriveCycle(base: RuleBase): { path: string[]; file: string; at: string } | undefined {

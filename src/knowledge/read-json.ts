@@ -1,15 +1,19 @@
 /** Reads a JSON data file and validates it, refusing oversized files before reading them. */
-import { readFileSync, statSync } from 'node:fs';
+import { closeSync, openSync, readSync, statSync } from 'node:fs';
 import type * as z from 'zod';
-import { failed, ok, type Issue, type Result } from './result.js';
+import { failed, failedWith, ISSUES_PER_FILE, ok, type Issue, type Result } from './result.js';
 import { oneLine, quote } from '../units/quote.js';
 
 /** Case, machine and rule files are small; anything larger is refused unread. */
 export const MAX_FILE_BYTES = 1024 * 1024;
+/** Objects and arrays inside each other: a rule's conditions need a dozen levels; deeper is refused before anything recurses into it. */
+export const MAX_DEPTH = 64;
 
 export function readJson(file: string): Result<unknown> {
   const r = readJsonFile(file);
-  return r.ok ? ok(r.value.value) : r;
+  if (!r.ok) return r;
+  const twice = duplicateKeyIssue(file, r.value.text);
+  return twice ? failed(twice) : ok(r.value.value);
 }
 
 /** The parsed JSON with the text it came from. */
@@ -27,27 +31,76 @@ export function readJsonFile(file: string): Result<{ text: string; value: unknow
   }
   let text: string;
   try {
-    text = readFileSync(file, 'utf8');
+    // The size stat gives is not trusted: /proc files report 0 and never end. At most one byte over the limit is read.
+    const bytes = readAtMost(file, MAX_FILE_BYTES + 1);
+    if (bytes.length > MAX_FILE_BYTES) return failed({ code: 'too-large', file, path: '', message: `file is over ${MAX_FILE_BYTES} bytes; data files are limited to ${MAX_FILE_BYTES} bytes (1 MiB)` });
+    text = bytes.toString('utf8');
   } catch (e) {
     return failed({ code: 'unreadable', file, path: '', message: describeFsError(e) });
   }
+  // A byte-order mark is not part of the JSON: some editors on Windows write one.
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   const value = parseJsonText(file, text);
   return value.ok ? ok({ text, value: value.value }) : value;
 }
 
-/** JSON text read elsewhere (standard input), with the same message as a file's. */
+/** JSON text read elsewhere (standard input), with the same messages as a file's. */
 export function parseJsonText(file: string, text: string): Result<unknown> {
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  let value: unknown;
   try {
-    return ok(JSON.parse(text) as unknown);
+    value = JSON.parse(text) as unknown;
   } catch (e) {
     return failed({ code: 'not-json', file, path: '', message: `not valid JSON (${oneLine((e as Error).message, 120)})` });
   }
+  const deep = tooDeep(value);
+  if (deep !== undefined) return failed({ code: 'invalid', file, path: deep, message: `nested more than ${MAX_DEPTH} levels deep: data files are limited to ${MAX_DEPTH} levels` });
+  return ok(value);
+}
+
+/** A key twice in one object, as an issue; the rule loader skips this for files the build sealed. */
+export function duplicateKeyIssue(file: string, text: string): Issue | undefined {
+  const twice = duplicateKey(text);
+  return twice ? { code: 'not-json', file, path: twice.path, message: `the key ${quote(twice.key)} appears twice in one object: only one can count, so the file is refused` } : undefined;
+}
+
+/** Reads until the end or until more than `limit` bytes are in, in 64 KiB pieces (some /proc files take only aligned reads). */
+function readAtMost(file: string, limit: number): Buffer {
+  const fd = openSync(file, 'r');
+  try {
+    const piece = 64 * 1024;
+    const buffer = Buffer.alloc(limit + piece);
+    let got = 0;
+    while (got <= limit) {
+      const n = readSync(fd, buffer, got, piece, null);
+      if (n === 0) break;
+      got += n;
+    }
+    return buffer.subarray(0, got);
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/** The path of the first value nested deeper than MAX_DEPTH, found without recursion. */
+function tooDeep(root: unknown): string | undefined {
+  const todo: { value: unknown; depth: number; path: PropertyKey[] }[] = [{ value: root, depth: 0, path: [] }];
+  for (let next = todo.pop(); next; next = todo.pop()) {
+    const { value, depth, path } = next;
+    if (value === null || typeof value !== 'object') continue;
+    if (depth >= MAX_DEPTH) return formatPath(path.slice(0, 12)) + (path.length > 12 ? `… (${path.length} levels)` : '');
+    for (const [k, v] of Object.entries(value)) todo.push({ value: v, depth: depth + 1, path: [...path, Array.isArray(value) ? Number(k) : k] });
+  }
+  return undefined;
 }
 
 export function validate<S extends z.ZodType>(file: string, data: unknown, schema: S, pathPrefix = ''): Result<z.output<S>> {
   const parsed = schema.safeParse(data, { reportInput: true });
   if (parsed.success) return ok(parsed.data);
-  return failed(...parsed.error.issues.map((i) => zodIssue(file, i, pathPrefix)));
+  const all = parsed.error.issues;
+  const shown = all.slice(0, ISSUES_PER_FILE).flatMap((i) => zodIssues(file, i, pathPrefix));
+  const more = all.length - Math.min(all.length, ISSUES_PER_FILE);
+  return failedWith(more ? [...shown, { code: 'invalid', file, path: '', message: '', more }] : shown);
 }
 
 export function readValidated<S extends z.ZodType>(file: string, schema: S): Result<z.output<S>> {
@@ -57,6 +110,27 @@ export function readValidated<S extends z.ZodType>(file: string, schema: S): Res
 
 export function formatPath(path: ReadonlyArray<PropertyKey>): string {
   return path.reduce<string>((acc, key) => (typeof key === 'number' ? `${acc}[${key}]` : acc ? `${acc}.${String(key)}` : String(key)), '');
+}
+
+/**
+ * zod says only "Invalid input" when no branch of a union fits (a rule condition with an unknown
+ * operator, or no value). The branch the input came closest to says what is wrong: the one with
+ * no missing or unknown keys at its top, then the fewest issues.
+ */
+function closestBranch(issue: z.core.$ZodIssueInvalidUnion): z.core.$ZodIssue[] | undefined {
+  const cost = (branch: z.core.$ZodIssue[]) =>
+    branch.reduce((sum, i) => sum + (i.code === 'unrecognized_keys' || (i.code === 'invalid_type' && i.path.length <= 1 && ('input' in i ? i.input === undefined : true)) ? 100 : 1), 0);
+  return [...issue.errors].sort((a, b) => cost(a) - cost(b))[0];
+}
+
+function zodIssues(file: string, issue: z.core.$ZodIssue, prefix: string, depth = 0): Issue[] {
+  if (issue.code === 'invalid_union' && issue.message === 'Invalid input' && depth < 8) {
+    const path = [prefix, formatPath(issue.path)].filter(Boolean).join('.');
+    if ('input' in issue && issue.input === undefined) return [{ code: 'invalid', file, path, message: 'missing: this field is required' }];
+    const branch = closestBranch(issue);
+    if (branch?.length) return branch.slice(0, ISSUES_PER_FILE).flatMap((i) => zodIssues(file, { ...i, path: [...issue.path, ...i.path] } as z.core.$ZodIssue, prefix, depth + 1));
+  }
+  return [zodIssue(file, issue, prefix)];
 }
 
 function zodIssue(file: string, issue: z.core.$ZodIssue, prefix: string): Issue {
@@ -75,4 +149,44 @@ function describeFsError(e: unknown): string {
   if (code === 'EACCES') return 'permission denied';
   if (code === 'EISDIR') return 'is a folder, not a file';
   return (e as Error).message;
+}
+
+/**
+ * The first key that appears twice in one object, with the object's path: JSON.parse keeps the
+ * last silently, so a rule edited in two places would change without anyone seeing which counts.
+ * A scan of the text that is known to be valid JSON, with a stack instead of recursion.
+ */
+function duplicateKey(text: string): { key: string; path: string } | undefined {
+  const frames: { keys?: Set<string>; path: PropertyKey[]; index: number }[] = [];
+  let pendingKey: string | undefined;
+  const here = () => frames.at(-1);
+  const childPath = () => {
+    const f = here();
+    if (!f) return [];
+    return f.keys ? [...f.path, pendingKey ?? ''] : [...f.path, f.index];
+  };
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i]!;
+    if (c === '"') {
+      let j = i + 1;
+      while (text[j] !== '"') j += text[j] === '\\' ? 2 : 1;
+      const f = here();
+      let k = j + 1;
+      while (k < text.length && ' \t\n\r'.includes(text[k]!)) k++;
+      if (f?.keys && text[k] === ':') {
+        const key = JSON.parse(text.slice(i, j + 1)) as string;
+        if (f.keys.has(key)) return { key, path: formatPath(f.path) };
+        f.keys.add(key);
+        pendingKey = key;
+      }
+      i = j;
+    } else if (c === '{' || c === '[') {
+      frames.push({ path: childPath(), index: 0, ...(c === '{' ? { keys: new Set<string>() } : {}) });
+    } else if (c === '}' || c === ']') frames.pop();
+    else if (c === ',') {
+      const f = here();
+      if (f && !f.keys) f.index++;
+    }
+  }
+  return undefined;
 }

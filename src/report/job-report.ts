@@ -16,6 +16,7 @@ import { clockTime } from './clock-time.js';
 import type { AssetHistory } from '../engine/asset-history.js';
 import { formatSeries } from './series-text.js';
 import { formatHistory } from './history-text.js';
+import { spacedControls } from '../knowledge/visible-text.js';
 
 export interface ReportInput {
   job: CaseFile;
@@ -54,9 +55,12 @@ const readingUnit = (name: string) => (name in READING_FIELDS ? DIMENSIONS[READI
 const words = (key: string) => key.replace(/([A-Z])/g, ' $1').toLowerCase();
 const n = (x: number) => String(Number(x.toPrecision(4)));
 const withUnit = (x: number, u: string) => (u === 'W' && x >= 1000 ? `${n(x / 1000)} kW` : `${n(x)}${UNIT[u] === '' || u === '' ? '' : ` ${UNIT[u] ?? u}`}`);
-/** Text people typed: no HTML gets through to the HTML report, no table breaks. */
-const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
-const cell = (s: string) => esc(s).replace(/\|/g, '\\|').replace(/\n/g, ' ');
+/**
+ * Text people typed, kept as text: one line (a newline cannot start a heading or leave its table
+ * cell or paragraph), no HTML, and no Markdown (links, images, emphasis, code) in the report.
+ */
+const esc = (s: string) => spacedControls(s).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/[\\`*_[\]!|~#]/g, '\\$&');
+const cell = esc;
 /** A sentence ends with one full stop, even after initials ("P.R."). */
 const sentence = (text: string) => (text.endsWith('.') ? text : `${text}.`);
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'live test (qualified person)', isolated: 'isolated (after isolation and lockout)' } as const;

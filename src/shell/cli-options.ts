@@ -37,7 +37,7 @@ export const OPTION_HELP: Record<Exclude<OptionName, 'help' | 'version'>, { valu
   report: { value: 'FILE', says: 'write the job report: Markdown, HTML for FILE.html, - for Markdown on stdout' },
   'no-chart': { says: 'leave out the speed–current chart' },
   'from-case': { value: 'FILE', says: 'the recorded case to draft the rule from' },
-  force: { says: 'adopt even if a recorded case leaves its top 3' },
+  force: { says: 'rules adopt: adopt even if a recorded case leaves its top 3; diagnose: replace an existing report file' },
   close: { value: 'NAME', says: 'mark the job closed by NAME (written back to FILE)' },
 };
 
@@ -56,7 +56,7 @@ export const COMMANDS: readonly CommandSpec[] = [
   { name: '', args: '', minArgs: 0, maxArgs: 0, options: ['rules', 'cases', 'machine', 'session', 'role', 'report'], says: 'the guided dialogue (needs a terminal)' },
   { name: 'resume', args: '', minArgs: 0, maxArgs: 0, options: ['rules', 'cases', 'session', 'role', 'report'], says: 'pick up an interrupted dialogue' },
   { name: 'expect', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['json', 'rules', 'no-chart'], says: 'what a healthy machine would read, against the readings' },
-  { name: 'diagnose', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['json', 'rules', 'cases', 'adaptive', 'report', 'no-chart'], says: 'ranked causes, ordered checks and isolation steps' },
+  { name: 'diagnose', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['json', 'rules', 'cases', 'adaptive', 'report', 'force', 'no-chart'], says: 'ranked causes, ordered checks and isolation steps' },
   { name: 'cases check', args: '[DIR]', minArgs: 0, maxArgs: 1, options: ['json', 'rules', 'cases', 'adaptive'], says: 'every recorded case: where its confirmed cause ranks' },
   { name: 'cases add', args: 'FILE', minArgs: 1, maxArgs: 1, options: ['rules', 'cases'], says: 'file a solved job as a recorded case' },
   { name: 'rules draft', args: '--from-case FILE', minArgs: 0, maxArgs: 0, options: ['from-case', 'json', 'rules', 'cases'], says: 'draft a rule from a recorded case' },

@@ -7,8 +7,13 @@ import { caseSchema, SAFE_ID, type CaseFile } from '../knowledge/case-schema.js'
 import { stableJson } from '../knowledge/canonical.js';
 import { readJson } from '../knowledge/read-json.js';
 import { failed, ok, type Result } from '../knowledge/result.js';
-import { writeNewFile, type WriteOptions } from './safe-write.js';
+import { join } from 'node:path';
+import { writeNewFile, writeProblem, type WriteOptions } from './safe-write.js';
+import { Locked, waitForLock, type Lock } from './lock.js';
 import { idFromTitle } from './id-from-title.js';
+
+/** Held in a cases folder while a case is filed; not a case (not *.json). */
+export const FILING_LOCK = '.dctriage-filing.lock';
 
 export interface Filed {
   file: string;
@@ -32,20 +37,30 @@ export function fileCase(raw: Record<string, unknown>, parsed: CaseFile, dir: st
   const wanted = parsed.id ?? (idFromTitle(parsed.job?.asset ?? '') || 'job');
   if (!SAFE_ID.test(wanted)) return failed({ code: 'invalid', file: dir, path: 'id', message: `"${wanted}" is not a safe id` });
   const date = parsed.outcome?.date ?? today;
-  let taken: Set<string>;
+  // One filer at a time per folder: choosing a free id and writing its file is one step.
+  let lock: Lock;
   try {
-    taken = idsIn(dir);
+    lock = waitForLock(join(dir, FILING_LOCK));
   } catch (e) {
-    return failed({ code: 'unreadable', file: dir, path: '', message: `cases folder cannot be read (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})` });
+    const why = e instanceof Locked ? `another dctriage (process ${e.pid}) has been filing into this folder for a long time; try again` : writeProblem(e);
+    return failed({ code: 'unwritable', file: dir, path: '', message: `could not write the case: ${why}` });
   }
-  const idFor = (n: number) => (n === 1 ? wanted : `${wanted}-${n}`);
   try {
-    const w = writeNewFile(dir, `${date}-${wanted}`, '.json', (n) => stableJson({ ...raw, id: idFor(n) }, caseSchema), { ...opts, skip: (n) => taken.has(idFor(n)) });
-    const id = idFor(w.suffix);
-    return ok({ file: w.file, id, ...(id !== wanted ? { requestedId: wanted } : {}) });
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'EACCES' || code === 'EROFS' ? 'the folder is not writable' : (e as Error).message;
-    return failed({ code: 'unreadable', file: dir, path: '', message: `could not write the case: ${why}` });
+    let taken: Set<string>;
+    try {
+      taken = idsIn(dir);
+    } catch (e) {
+      return failed({ code: 'unreadable', file: dir, path: '', message: `cases folder cannot be read (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})` });
+    }
+    const idFor = (n: number) => (n === 1 ? wanted : `${wanted}-${n}`);
+    try {
+      const w = writeNewFile(dir, `${date}-${wanted}`, '.json', (n) => stableJson({ ...raw, id: idFor(n) }, caseSchema), { ...opts, skip: (n) => taken.has(idFor(n)) });
+      const id = idFor(w.suffix);
+      return ok({ file: w.file, id, ...(id !== wanted ? { requestedId: wanted } : {}) });
+    } catch (e) {
+      return failed({ code: 'unwritable', file: dir, path: '', message: `could not write the case: ${writeProblem(e)}` });
+    }
+  } finally {
+    lock.release();
   }
 }

@@ -2,14 +2,14 @@
  * The workshop lead's commands: file a case, draft a rule from it, review a rule folder, adopt
  * a draft. Each returns what to print and the exit code; the CLI prints.
  */
-import { mkdirSync, readdirSync, unlinkSync } from 'node:fs';
+import { readdirSync, unlinkSync } from 'node:fs';
 import { basename, isAbsolute, join, relative } from 'node:path';
 import { caseSchema, type CaseFile } from '../knowledge/case-schema.js';
 import { stableJson } from '../knowledge/canonical.js';
 import { caseFromJson, loadCase, loadCaseFile } from '../knowledge/load-case.js';
 import { crossCheck, loadRuleBase, type RuleBase } from '../knowledge/load-rules.js';
 import { readJson, readValidated } from '../knowledge/read-json.js';
-import { formatIssues, type Issue } from '../knowledge/result.js';
+import { exitCodeOf, formatIssues, type Issue } from '../knowledge/result.js';
 import { causesFile, checksFile, draftFile, ruleFile } from '../knowledge/rulebase-schema.js';
 import { checkCases, type CaseCheckReport } from '../engine/check-cases.js';
 import { reviewRuleBase, type RuleFinding } from '../engine/check-rules.js';
@@ -21,7 +21,7 @@ import { buildEngine } from '../engine/run-rules.js';
 import { jobReport, type ProducedBy } from '../report/job-report.js';
 import { clockTime } from '../report/clock-time.js';
 import { JSON_FORMATS } from './json-formats.js';
-import { replaceFile, writeNewFile } from './safe-write.js';
+import { makeFolder, replaceFile, stageFile, writeNewFile, writeProblem, type Staged } from './safe-write.js';
 
 export interface Outcome {
   code: number;
@@ -30,7 +30,7 @@ export interface Outcome {
 }
 
 /** Issues as the shell prints them: one line each, starting with the program's name. */
-const bad = (issues: Issue[]): Outcome => ({ code: 2, err: formatIssues(issues).split('\n').map((l) => `dctriage: ${l}`).join('\n') });
+const bad = (issues: Issue[]): Outcome => ({ code: exitCodeOf(issues), err: formatIssues(issues).split('\n').map((l) => `dctriage: ${l}`).join('\n') });
 /** A path as the lead would type it: relative when it is under the working folder. */
 const shown = (file: string) => {
   const r = relative(process.cwd(), file);
@@ -88,7 +88,7 @@ export async function reviewJob(file: string, base: RuleBase, closeBy: string | 
   try {
     replaceFile(file, stableJson({ ...raw, job: { ...raw.job, closedBy: closeBy, closedAt: now } }, caseSchema));
   } catch (e) {
-    return bad([{ code: 'unreadable', file, path: '', message: `could not mark the job closed: ${(e as Error).message}` }]);
+    return bad([{ code: 'unwritable', file, path: '', message: `could not mark the job closed: ${writeProblem(e)}; the file is as it was` }]);
   }
   return { code: 0, out: `${text}\nClosed by ${closeBy} at ${clockTime(now, timeZone)}; written to ${file}.` };
 }
@@ -133,10 +133,10 @@ export async function draftRule(caseFile: string, rulesDir: string, casesDir: st
   const drafts = join(rulesDir, 'drafts');
   let written: string;
   try {
-    mkdirSync(drafts, { recursive: true });
+    makeFolder(drafts);
     written = writeNewFile(drafts, draft.name, '.json', stableJson(draft.file, draftFile)).file;
   } catch (e) {
-    return bad([{ code: 'unreadable', file: drafts, path: '', message: `could not write the draft: ${(e as Error).message}` }]);
+    return bad([{ code: 'unwritable', file: drafts, path: '', message: `could not write the draft: ${writeProblem(e)}` }]);
   }
   const before = await checkCases(recorded.files, base);
   const after = await checkCases(recorded.files, withDraft(base, draft.file, written));
@@ -211,17 +211,40 @@ export async function adoptDraft(draftPath: string, rulesDir: string, casesDir: 
     ? ['Rank changes (confirmed cause, before → after):', ...moved.map((c) => `  ${c.droppedOut ? 'OUT ' : '    '}${c.id} (${c.expected}): ${c.before || 'absent'} → ${c.after || 'absent'}`)]
     : ['No recorded case changes rank.'];
   if (dropped.length && !force) return { code: 1, err: [`Not adopted: ${dropped.length} recorded case(s) would leave the top 3:`, ...broke, ...changeLines, 'Review the draft, or adopt with --force.'].join('\n') };
+  // Catalogue changes are written completely before anything is published, and the draft is
+  // removed only once every file is in place: a failure leaves the folder and the draft as they were.
+  const { causes, checks, ...rules } = draft;
+  const staged: Staged[] = [];
+  let ruleWritten: string | undefined;
   try {
-    const { causes, checks, ...rules } = draft;
-    writeNewFile(rulesDir, basename(draftPath, '.json'), '.json', stableJson(rules, ruleFile));
-    if (causes?.length) replaceFile(join(rulesDir, 'causes.json'), stableJson({ causes: [...base.causes, ...causes] }, causesFile));
-    if (checks?.length) replaceFile(join(rulesDir, 'checks.json'), stableJson({ checks: [...base.checks, ...checks] }, checksFile));
+    // checks.json first: a cause names its checks, so new checks may stand before the causes that use them.
+    if (checks?.length) staged.push(stageFile(join(rulesDir, 'checks.json'), stableJson({ checks: [...base.checks, ...checks], ...(base.retiredChecks ? { retired: base.retiredChecks } : {}) }, checksFile)));
+    if (causes?.length) staged.push(stageFile(join(rulesDir, 'causes.json'), stableJson({ causes: [...base.causes, ...causes] }, causesFile)));
+    ruleWritten = writeNewFile(rulesDir, basename(draftPath, '.json'), '.json', stableJson(rules, ruleFile)).file;
+    while (staged.length) {
+      staged[0]!.publish();
+      staged.shift();
+    }
+  } catch (e) {
+    staged.forEach((s) => s.abort());
+    if (ruleWritten) removeQuietly(ruleWritten);
+    return bad([{ code: 'unwritable', file: rulesDir, path: '', message: `could not adopt the draft: ${writeProblem(e)}; the rule folder and the draft are as they were` }]);
+  }
+  try {
     unlinkSync(draftPath);
   } catch (e) {
-    return bad([{ code: 'unreadable', file: rulesDir, path: '', message: `could not adopt the draft: ${(e as Error).message}` }]);
+    return { code: 0, out: `Adopted ${basename(draftPath)} into ${rulesDir}, but the draft could not be removed (${writeProblem(e)}): remove it by hand.` };
   }
   const lines = [`Adopted ${basename(draftPath)} into ${rulesDir}.`, ...changeLines];
   if (dropped.length) lines.push(`Adopted with --force; these recorded cases left their top 3:`, ...broke);
   return { code: 0, out: lines.join('\n') };
 }
 
+
+function removeQuietly(file: string): void {
+  try {
+    unlinkSync(file);
+  } catch {
+    // already gone
+  }
+}

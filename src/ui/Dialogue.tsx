@@ -3,12 +3,12 @@
  * causes, the question, its choices, the input line and a footer of commands. All decisions are
  * the reducer's; this only renders state and runs the diagnosis when the answers change.
  */
-import { useEffect, useMemo, useReducer, useRef } from 'react';
+import { useEffect, useMemo, useReducer, useRef, useState } from 'react';
 import { Box, Static, Text, useApp, useStdout } from 'ink';
 import type { RuleEngines } from '../engine/run-rules.js';
 import { diagnose, isolationSteps } from '../engine/diagnose.js';
 import { parseDraft } from '../dialogue/job.js';
-import { COMMANDS, currentStep, draftOf, initialState, outcomeStep, reduce, resultChecks, workPrompt, type DialogueContext, type DialogueState } from '../dialogue/reducer.js';
+import { COMMANDS, currentStep, draftOf, expectsFreeText, initialState, outcomeStep, progressOf, reduce, resultChecks, workPrompt, type DialogueContext, type DialogueState, type SavedProgress } from '../dialogue/reducer.js';
 import { statusOf, type WorkEntry } from '../dialogue/work.js';
 import type { DialogueQuestion } from '../dialogue/questions.js';
 import type { CaseFile } from '../knowledge/case-schema.js';
@@ -27,8 +27,10 @@ export interface DialogueProps {
   initialAnswers?: Answer[];
   /** Checks already worked, from a resumed session. */
   initialWork?: WorkEntry[];
-  /** Called after every change of answers or of checks worked: the shell saves the session. */
-  onAnswers?: (answers: Answer[], work: WorkEntry[]) => void;
+  /** From a resumed session: the prompts that were open when it was saved. */
+  initialProgress?: SavedProgress;
+  /** Called after every change of answers, checks worked, or answers at a check's or the outcome's prompts: the shell saves the session, and says why not if it could not. */
+  onAnswers?: (answers: Answer[], work: WorkEntry[], progress: SavedProgress) => string | undefined | void;
   /** Saves the job, with the outcome recorded so far; returns the words to show (where it went, or why not). */
   onSave?: (answers: Answer[], outcome: Answer[], work: WorkEntry[]) => string;
   /** Files the job with its recorded outcome as a case; returns the words to show. */
@@ -49,22 +51,32 @@ interface Line {
 
 const now = () => new Date().toISOString();
 
-export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWork, onAnswers, onSave, onRecord, onReport, onInterrupt, color = true, chart }: DialogueProps) {
+export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWork, initialProgress, onAnswers, onSave, onRecord, onReport, onInterrupt, color = true, chart }: DialogueProps) {
   const { exit } = useApp();
   const { stdout } = useStdout();
   const width = Math.max(40, stdout?.columns ?? 80);
-  const [state, dispatch] = useReducer((s: DialogueState, e: Parameters<typeof reduce>[1]) => reduce(s, e, ctx), undefined, () => initialState(initialAnswers, initialWork));
+  const [state, dispatch] = useReducer((s: DialogueState, e: Parameters<typeof reduce>[1]) => reduce(s, e, ctx), undefined, () => initialState(initialAnswers, initialWork, initialProgress));
   const step = useMemo(() => currentStep(state, ctx), [state, ctx]);
   const typed = useLineInput(
     (line) => dispatch({ type: 'input', text: line, at: now() }),
     () => (onInterrupt ? onInterrupt() : exit(new Error('interrupted'))),
+    true,
+    useMemo(() => expectsFreeText(state, ctx), [state, ctx]),
   );
 
-  // Save after every answer, and diagnose the answers as they now stand.
-  const firstRender = useRef(true);
+  // Save after every answer anywhere: the questions, a check's prompts, the outcome.
+  const progress = progressOf(state);
+  const snapshot = JSON.stringify([state.answers, state.work, progress]);
+  const lastSaved = useRef(initialAnswers?.length ? '' : snapshot);
+  const [saveProblem, setSaveProblem] = useState<string | undefined>();
   useEffect(() => {
-    if (!firstRender.current || initialAnswers?.length) onAnswers?.(state.answers, state.work);
-    firstRender.current = false;
+    if (snapshot === lastSaved.current) return;
+    lastSaved.current = snapshot;
+    setSaveProblem(onAnswers?.(state.answers, state.work, progress) ?? undefined);
+  }, [snapshot]);
+
+  // Diagnose the answers as they now stand.
+  useEffect(() => {
     const parsed = parseDraft(draftOf(state, ctx));
     if (!parsed.ok) return;
     let live = true;
@@ -76,10 +88,6 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
   }, [state.version]);
 
   const diagnosis = state.diagnosis?.version === state.version ? state.diagnosis.value : undefined;
-  const workCount = state.work.length;
-  useEffect(() => {
-    if (workCount > 0) onAnswers?.(state.answers, state.work);
-  }, [workCount]);
   // The shell writes what was asked for; its words come back as `saved`.
   useEffect(() => {
     const r = state.request;
@@ -144,6 +152,7 @@ export function Dialogue({ ctx, engine, safetyNotice, initialAnswers, initialWor
         </Text>
       )}
       {state.saved && <Text>{state.saved}</Text>}
+      {saveProblem && <Text {...(color ? { color: 'magenta' } : {})}>✗ {saveProblem}</Text>}
       {state.error && <Text {...(color ? { color: 'magenta' } : {})}>✗ {state.error}</Text>}
       {state.phase !== 'notice' && <Text>&gt; {typed}</Text>}
       <Text {...(color ? { color: 'gray' } : {})} >{width < 70 ? 'Enter=unknown · back why causes safety done help · Ctrl-C' : 'Enter alone = unknown · back · why · causes · safety · done · help · Ctrl-C'}</Text>

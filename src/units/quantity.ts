@@ -139,7 +139,22 @@ function lowercaseUnit(u: string, dimension: Dimension): string {
  * @example parseQuantity('14,5 V', 'voltage') // { ok: true, value: 14.5 }
  * @example parseQuantity('5 A', 'voltage')    // { ok: false, error: { code: 'wrong-dimension', … } }
  */
+/** Recent readings of typed text: case files repeat their nameplates ("220 V"), and mathjs is most of a reading's cost. */
+const recent = new Map<string, QuantityResult>();
+const RECENT_MAX = 4096;
+
 export function parseQuantity(input: string | number, dimension: Dimension): QuantityResult {
+  if (typeof input !== 'string') return readQuantity(input, dimension);
+  const key = `${dimension}\u0000${input}`;
+  const known = recent.get(key);
+  if (known) return known;
+  const result = Object.freeze(readQuantity(input, dimension));
+  if (recent.size >= RECENT_MAX) recent.clear();
+  recent.set(key, result);
+  return result;
+}
+
+function readQuantity(input: string | number, dimension: Dimension): QuantityResult {
   const spec = DIMENSIONS[dimension];
   if (typeof input === 'number') return checkRange(input, String(input), dimension);
   const text = input.trim();

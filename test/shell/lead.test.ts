@@ -81,10 +81,29 @@ describe('dctriage cases add', () => {
     expect(new Set(ids).size).toBe(2);
   });
 
+  it('gives 20 processes filing one id under different dates 20 distinct ids', async () => {
+    const dir = emptyDir();
+    const rules = copyOfRules();
+    const sources = emptyDir();
+    const run = (k: number) =>
+      new Promise<number | null>((resolve) => {
+        const file = join(sources, `job-${k}.json`);
+        writeFileSync(file, JSON.stringify({ ...raw(), outcome: { ...(raw().outcome as object), date: `2026-01-${String(k + 1).padStart(2, '0')}` } }));
+        const p = spawn(process.execPath, [CLI, 'cases', 'add', file, '--cases', dir, '--rules', rules], { stdio: 'ignore' });
+        p.on('exit', resolve);
+      });
+    const codes = await Promise.all(Array.from({ length: 20 }, (_, k) => run(k)));
+    expect(codes).toEqual(Array(20).fill(0));
+    const ids = jsonFiles(dir).map((f) => JSON.parse(readFileSync(join(dir, f), 'utf8')).id);
+    expect(ids).toHaveLength(20);
+    expect(new Set(ids).size).toBe(20);
+    expect(readdirSync(dir).filter((f) => !f.endsWith('.json'))).toEqual([]);
+  }, 60_000);
+
   it('says clearly when the cases folder cannot be written', () => {
     // /sys refuses new files even to root, unlike a chmod-ed folder.
     const r = runCli(['cases', 'add', demo, '--cases', '/sys', '--rules', copyOfRules()]);
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(74);
     expect(r.stderr).toMatch(/\/sys: could not write the case/);
   });
 });

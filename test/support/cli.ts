@@ -14,8 +14,10 @@ export interface Run {
   stderr: string;
 }
 
-export function runCli(args: string[], opts: { cwd?: string; input?: string; env?: Record<string, string> } = {}): Run {
-  const r = spawnSync(process.execPath, [CLI, ...args], {
+export function runCli(args: string[], opts: { cwd?: string; input?: string; env?: Record<string, string>; fileSizeLimitKiB?: number } = {}): Run {
+  // A small file-size limit (ulimit -f) makes writes come up short, as on a full disk.
+  const [cmd, argv] = opts.fileSizeLimitKiB === undefined ? [process.execPath, [CLI, ...args]] : ['bash', ['-c', `ulimit -f ${opts.fileSizeLimitKiB}; exec "$@"`, 'bash', process.execPath, CLI, ...args]];
+  const r = spawnSync(cmd, argv, {
     cwd: opts.cwd ?? ROOT,
     input: opts.input ?? '',
     encoding: 'utf8',

@@ -4,15 +4,18 @@ import { buildFlow } from '../../src/dialogue/flow.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
 import type { Answer } from '../../src/dialogue/job.js';
 import type { WorkEntry, WorkRules } from '../../src/dialogue/work.js';
+import type { SavedProgress } from '../../src/dialogue/reducer.js';
 import { Dialogue } from '../../src/ui/Dialogue.js';
 import { builtInRules } from './rules.js';
 
 export const settle = (ms = 25) => new Promise((r) => setTimeout(r, ms));
 
-export function renderDialogue(opts: { initialAnswers?: Answer[]; initialWork?: WorkEntry[]; machineFile?: unknown; work?: WorkRules } = {}) {
+export function renderDialogue(opts: { initialAnswers?: Answer[]; initialWork?: WorkEntry[]; initialProgress?: SavedProgress; machineFile?: unknown; work?: WorkRules } = {}) {
   const base = builtInRules();
   const flow = buildFlow(base);
   const saved: Answer[][] = [];
+  /** Everything each save held: the answers, the checks worked and the prompts open. */
+  const sessions: { answers: Answer[]; work: WorkEntry[]; progress: SavedProgress }[] = [];
   const recorded: { answers: Answer[]; outcome: Answer[] }[] = [];
   const app = render(
     <Dialogue
@@ -20,8 +23,12 @@ export function renderDialogue(opts: { initialAnswers?: Answer[]; initialWork?: 
       engine={buildEngine(base)}
       safetyNotice={base.safety.notice}
       initialAnswers={opts.initialAnswers ?? []}
-      initialWork={opts.initialWork ?? []}
-      onAnswers={(a) => saved.push(a)}
+      {...(opts.initialWork ? { initialWork: opts.initialWork } : {})}
+      {...(opts.initialProgress ? { initialProgress: opts.initialProgress } : {})}
+      onAnswers={(answers, work, progress) => {
+        saved.push(answers);
+        sessions.push({ answers, work, progress });
+      }}
       onRecord={(answers, outcome) => {
         recorded.push({ answers, outcome });
         return 'Recorded the job as test-case.json';
@@ -60,5 +67,5 @@ export function renderDialogue(opts: { initialAnswers?: Answer[]; initialWork?: 
   };
   /** Everything printed so far: the settled transcript and the live area. */
   const screen = () => app.frames.join('\n');
-  return { ...app, type, screen, saved, recorded, flow };
+  return { ...app, type, screen, saved, sessions, recorded, flow };
 }

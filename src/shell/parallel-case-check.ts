@@ -1,0 +1,146 @@
+/**
+ * cases check on every core: the files go out in batches to worker threads, each with its own
+ * rule engine, and the results come back and are reported in file order as they arrive, so only
+ * a few batches are ever held. Each worker is this same command started again in a thread
+ * (the launcher, then runCli, which sees the worker's data and serves batches instead).
+ */
+import { availableParallelism } from 'node:os';
+import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import { dirname } from 'node:path';
+import { CaseIssues, CaseTally, checkCases, loopReplayer, rankCaseFile, wholeCaseRunner, type CaseCheckReport, type CaseRank, type CaseStream, type SkippedCase } from '../engine/check-cases.js';
+import type { RuleBase } from '../knowledge/load-rules.js';
+import { ok, type Issue, type Result } from '../knowledge/result.js';
+
+/** Files per message: large enough that messages cost little, small enough that order costs no memory. */
+const BATCH = 50;
+/** Below this, starting threads costs more than it saves. */
+const MIN_FILES = 200;
+const MAX_WORKERS = 8;
+/** Enough for the built-in rules with room to spare; a worker that runs out hands its batch back. */
+const WORKER_LIMITS = { maxOldGenerationSizeMb: Number(process.env.DCTRIAGE_WORKER_HEAP_MB) || 48, maxYoungGenerationSizeMb: 8 };
+
+type Ranked = CaseRank | { skipped: SkippedCase } | { issues: Issue[] };
+interface WorkerJob {
+  dctriageCaseCheck: { rules: string };
+}
+type ToWorker = { batch: number; files: string[] } | { done: true };
+type FromWorker = { batch: number; results: Ranked[] } | { failed: string };
+
+/** The job, when this thread is a cases-check worker. */
+export function caseCheckWorkerJob(): { rules: string } | undefined {
+  return !isMainThread && (workerData as WorkerJob | undefined)?.dctriageCaseCheck ? (workerData as WorkerJob).dctriageCaseCheck : undefined;
+}
+
+/** The worker's side: rank each batch it is sent, until told it is done. */
+export function runCaseCheckWorker(job: { rules: string }, loadRules: (dir: string) => Result<RuleBase>): Promise<void> {
+  const port = parentPort!;
+  const base = loadRules(job.rules);
+  if (!base.ok) {
+    port.postMessage({ failed: `${job.rules}: the rule folder did not load in a worker` } satisfies FromWorker);
+    return Promise.resolve();
+  }
+  const run = wholeCaseRunner(base.value);
+  const replay = loopReplayer(base.value);
+  const causeIds = new Set(base.value.causes.map((c) => c.id));
+  return new Promise((resolve) => {
+    port.on('message', (m: ToWorker) => {
+      if ('done' in m) {
+        port.close();
+        resolve();
+        return;
+      }
+      void (async () => {
+        const results: Ranked[] = [];
+        for (const file of m.files) results.push(await rankCaseFile(file, causeIds, run, replay));
+        port.postMessage({ batch: m.batch, results } satisfies FromWorker);
+      })();
+    });
+  });
+}
+
+/** Like checkCases, on worker threads when there are enough files and cores; in this thread otherwise. */
+export async function checkCasesInParallel(files: string[], base: RuleBase, rulesDir: string, stream: CaseStream, script = process.argv[1]): Promise<Result<CaseCheckReport>> {
+  const batches: string[][] = [];
+  for (let k = 0; k < files.length; k += BATCH) batches.push(files.slice(k, k + BATCH));
+  // DCTRIAGE_THREADS=1 keeps it in this thread (to compare, or on a machine shared with other work).
+  const threads = Math.min(Number(process.env.DCTRIAGE_THREADS) || availableParallelism(), MAX_WORKERS, batches.length);
+  if (threads < 2 || files.length < MIN_FILES || !script) return checkCases(files, base, undefined, stream);
+
+  const issues = new CaseIssues();
+  const tally = new CaseTally();
+  const skipped: SkippedCase[] = [];
+  const arrived = new Map<number, Ranked[]>();
+  const pending = batches.map((_, k) => k);
+  let nextToReport = 0;
+  let filesDone = 0;
+  const workers: Worker[] = [];
+  try {
+    await new Promise<void>((resolve, reject) => {
+      const report = () => {
+        for (let r = arrived.get(nextToReport); r; r = arrived.get(nextToReport)) {
+          arrived.delete(nextToReport++);
+          for (const x of r) {
+            if ('issues' in x) issues.add(x.issues);
+            else if ('skipped' in x) skipped.push(x.skipped);
+            else {
+              tally.add(x);
+              stream.onCase?.(x);
+            }
+            stream.onProgress?.(++filesDone, files.length);
+          }
+        }
+        if (nextToReport === batches.length) resolve();
+      };
+      // This thread only hands out batches, unless a worker fails: then it takes over what is left.
+      let working = false;
+      const workHere = async () => {
+        if (working) return;
+        working = true;
+        const here = wholeCaseRunner(base);
+        const replayHere = loopReplayer(base);
+        const causeIds = new Set(base.causes.map((c) => c.id));
+        for (let batch = pending.shift(); batch !== undefined; batch = pending.shift()) {
+          const results: Ranked[] = [];
+          for (const file of batches[batch]!) results.push(await rankCaseFile(file, causeIds, here, replayHere));
+          arrived.set(batch, results);
+          report();
+        }
+        working = false;
+      };
+      const start = () => {
+        // The same command in a thread: argv keeps the launcher on its fast build. Its heap is
+        // kept small, so that garbage is collected rather than held (memory stays flat).
+        const w = new Worker(script, { argv: ['cases', 'check'], workerData: { dctriageCaseCheck: { rules: rulesDir } } satisfies WorkerJob, stdout: false, stderr: false, resourceLimits: WORKER_LIMITS });
+        workers.push(w);
+        let inFlight: number | undefined;
+        const send = () => {
+          inFlight = pending.shift();
+          if (inFlight !== undefined) w.postMessage({ batch: inFlight, files: batches[inFlight]! } satisfies ToWorker);
+        };
+        w.on('message', (m: FromWorker) => {
+          if ('failed' in m) return reject(new Error(m.failed));
+          arrived.set(m.batch, m.results);
+          send();
+          report();
+        });
+        // A worker that fails (out of its memory on a large rule base, say): its batch goes back, and this thread works.
+        w.on('error', () => {
+          if (inFlight !== undefined) pending.unshift(inFlight);
+          inFlight = undefined;
+          workHere().catch(reject);
+        });
+        send();
+      };
+      try {
+        for (let k = 0; k < threads; k++) start();
+      } catch {
+        workHere().catch(reject);
+      }
+    });
+  } finally {
+    for (const w of workers) w.postMessage({ done: true } satisfies ToWorker);
+  }
+  const failure = issues.result(dirname(files[0]!));
+  if (failure) return failure;
+  return ok({ total: tally.total, top1: tally.top1, top3: tally.top3, cases: [], skipped });
+}
