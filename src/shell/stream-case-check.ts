@@ -31,11 +31,12 @@ const loopWords = (c: CaseRank) => (!c.loop ? '' : c.loop.correct ? `found, ${c.
 export function caseCheckPrinter(mode: 'json' | 'text', write: (text: string) => void, progress?: (text: string) => void, opts: PrinterOptions = {}): CaseCheckPrinter {
   const shown = opts.shownPath ?? ((f: string) => f);
   const width = opts.width ?? 100;
-  // rank and flag take 12 columns with their gaps, the replay of recorded checks 17 on a wide terminal; the rest is shared.
+  // rank and flag take 12 columns with their gaps, the two gaps between the names 4, the replay
+  // of recorded checks 18 on a wide terminal; the rest is shared by the case, its cause and the leader.
   const loopColumn = width >= 80;
-  const room = Math.max(30, width - 12 - (loopColumn ? 17 : 0));
-  const [caseWidth, causeWidth] = [Math.floor(room * 0.42), Math.max(15, Math.floor(room * 0.3))];
-  const leaderWidth = Math.max(8, room - caseWidth - causeWidth - 4);
+  const room = Math.max(24, width - 12 - 4 - (loopColumn ? 18 : 0));
+  const [caseWidth, causeWidth] = [Math.floor(room * 0.4), Math.max(15, Math.floor(room * 0.3))];
+  const leaderWidth = room - caseWidth - causeWidth;
   let count = 0;
   let out = false;
   let shownAt = 0;

@@ -60,7 +60,7 @@ describe('help and version', () => {
     expect(a.stdout).toBe(b.stdout);
     expect(a.stdout).toMatch(/^Usage: dctriage diagnose FILE \[options\]/);
     for (const o of ['--json', '--rules DIR', '--adaptive', '--report FILE', '--no-chart']) expect(a.stdout).toContain(o);
-    expect(a.stdout).not.toContain('--force');
+    expect(a.stdout).not.toContain('--close');
     expect(runCli(['help', 'rules', 'adopt']).stdout).toMatch(/^Usage: dctriage rules adopt DRAFT \[options\][\s\S]*--force/);
   });
 

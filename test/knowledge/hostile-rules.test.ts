@@ -144,7 +144,7 @@ describe('a cases folder of 1,500 broken files', () => {
     const lines = r.stderr.trimEnd().split('\n');
     expect(lines).toHaveLength(20 * 21 + 1);
     expect(lines[20]).toMatch(/case-0000\.json: and 10 more issues in this file$/);
-    expect(lines.at(-1)).toBe(`${dir}: and 1480 more case files with issues`);
+    expect(lines.at(-1)).toBe(`dctriage: ${dir}: and 1480 more case files with issues`);
   }, 120_000);
 });
 

@@ -32,7 +32,7 @@ describe('cases check over many files', () => {
     const files = readdirSync(dir).sort().map((f) => join(dir, f));
     const whole = await checkCases(files, builtInRules());
     expect(whole.ok).toBe(true);
-    if (whole.ok) expect(JSON.parse(two.stdout)).toEqual({ cases: whole.value.cases.map((c) => ({ ...c })), total: whole.value.total, top1: whole.value.top1, top3: whole.value.top3 });
+    if (whole.ok) expect(JSON.parse(two.stdout)).toEqual({ format: 'dctriage-case-check/1', cases: whole.value.cases.map((c) => ({ ...c })), total: whole.value.total, top1: whole.value.top1, top3: whole.value.top3, skipped: [] });
   }, 120_000);
 
   it('finishes in this thread what a failed worker left, with the same report', () => {
@@ -47,7 +47,7 @@ describe('cases check over many files', () => {
   it('writes a valid report with no cases', () => {
     const dir = mkdtempSync(join(tmpdir(), 'dctriage-none-'));
     const r = runCli(['cases', 'check', dir, '--json']);
-    expect(JSON.parse(r.stdout)).toEqual({ cases: [], total: 0, top1: 0, top3: 0 });
+    expect(JSON.parse(r.stdout)).toEqual({ format: 'dctriage-case-check/1', cases: [], total: 0, top1: 0, top3: 0, skipped: [] });
     expect(r.code).toBe(0);
   });
 });
