@@ -47,6 +47,7 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
   // The rules' own ranking, before any check result: the recorded checks are replayed apart.
   const run: CaseRunner = runner ?? (async (c) => ({ ranked: (await diagnose({ ...c, checks: [] }, base, engine)).causes.map((x) => x.id) }));
   const causeIds = new Set(base.causes.map((c) => c.id));
+  const same = sameCause(base);
   const issues: Issue[] = [];
   const cases: CaseRank[] = [];
   for (const file of files) {
@@ -59,8 +60,8 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
     const expected = job.outcome?.cause;
     if (expected === undefined) continue;
     const { ranked, questionsAsked } = await run(job, raw);
-    const loop = job.checks?.length ? await replayChecks(job, expected, base, engine) : undefined;
-    cases.push({ id: job.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}), ...(loop ? { loop } : {}) });
+    const loop = job.checks?.length ? await replayChecks(job, expected, base, engine, same) : undefined;
+    cases.push({ id: job.id ?? file, file, expected, rank: ranked.findIndex((c) => same(c, expected)) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}), ...(loop ? { loop } : {}) });
   }
   if (issues.length) return failed(...issues);
   return ok({
@@ -71,15 +72,24 @@ export async function checkCases(files: string[], base: RuleBase, runner?: CaseR
   });
 }
 
+/**
+ * Whether two cause ids name the same fault for scoring a recorded job: the same id, or one that
+ * refines the other (a job filed under the broader cause keeps its meaning when a narrower one is added).
+ */
+export function sameCause(base: RuleBase): (a: string, b: string) => boolean {
+  const broader = new Map(base.causes.flatMap((c) => (c.refines ? [[c.id, c.refines] as const] : [])));
+  return (a, b) => a === b || broader.get(a) === b || broader.get(b) === a;
+}
+
 /** Replays a case's recorded checks in order: where the loop confirmed a cause, and after how many minutes. */
-async function replayChecks(job: CaseFile, expected: string, base: RuleBase, engine: ReturnType<typeof buildEngine>): Promise<LoopReplay> {
+async function replayChecks(job: CaseFile, expected: string, base: RuleBase, engine: ReturnType<typeof buildEngine>, same: (a: string, b: string) => boolean): Promise<LoopReplay> {
   const checks = job.checks ?? [];
   const minutesOf = new Map(base.checks.map((c) => [c.id, c.minutes]));
   let minutes = 0;
   for (let k = 1; k <= checks.length; k++) {
     minutes += minutesOf.get(checks[k - 1]!.id) ?? 0;
     const d = await diagnose({ ...job, checks: checks.slice(0, k) }, base, engine);
-    if (d.status === 'confirmed') return { worked: checks.length, confirmed: d.confirmed, correct: d.confirmed === expected, minutes, after: k };
+    if (d.status === 'confirmed') return { worked: checks.length, confirmed: d.confirmed, correct: d.confirmed !== null && same(d.confirmed, expected), minutes, after: k };
   }
   return { worked: checks.length, confirmed: null, correct: false, minutes, after: checks.length };
 }

@@ -58,6 +58,8 @@ export const causeSchema = z.strictObject({
   description: z.string().min(1),
   /** Only these machines can have this fault; absent = all. */
   appliesTo: appliesTo.optional(),
+  /** A broader cause this one narrows (a starter resistance open is an open armature circuit): jobs filed under either count for both. */
+  refines: id.optional(),
   checks: z.array(id).min(1),
 });
 export const causesFile = z.strictObject({ causes: z.array(causeSchema).min(1) });
@@ -162,7 +164,8 @@ export const safetyFile = z.strictObject({
 
 export const sharedConditionsFile = z.strictObject({ conditions: z.record(id, conditionSchema) });
 
-const ruleBase = { name: id, conditions: conditionSchema, says: z.string().min(1).optional() };
+/** `source`: where the rule's knowledge comes from (a standard's clause, a textbook, a public manual, or "common practice"). */
+const ruleBase = { name: id, conditions: conditionSchema, says: z.string().min(1).optional(), source: z.string().min(1).optional() };
 
 export const ruleSchema = z.discriminatedUnion('kind', [
   /** Derives an intermediate fact (true) for other rules. */
