@@ -11,6 +11,7 @@ import { loadCase } from '../src/knowledge/load-case.js';
 import { loadRuleBase } from '../src/knowledge/load-rules.js';
 import { buildEngine } from '../src/engine/run-rules.js';
 import { simulateLoop, type LoopRun } from '../src/engine/simulate-loop.js';
+import { sameCause } from '../src/engine/check-cases.js';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 const loaded = loadRuleBase(join(root, 'rules'));
@@ -21,7 +22,7 @@ const runs: (LoopRun & { name: string })[] = [];
 for (const name of readdirSync(join(root, 'cases')).filter((f) => f.endsWith('.json')).sort()) {
   const c = loadCase(join(root, 'cases', name));
   if (!c.ok || !c.value.outcome?.cause) continue;
-  runs.push({ name, ...(await simulateLoop(c.value, c.value.outcome.cause, base, engine)) });
+  runs.push({ name, ...(await simulateLoop(c.value, c.value.outcome.cause, base, engine, sameCause(base))) });
 }
 const mean = (xs: number[]) => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : NaN);
 const correct = runs.filter((r) => r.correct);

@@ -60,7 +60,8 @@ export function nextStep(flow: Flow, p: Progress): Next {
   }
   if (!answered.has('symptoms')) return { kind: 'ask', question: flow.all.get('symptoms')! };
   if (!p.diagnosis) return { kind: 'needs-diagnosis' };
-  const adaptiveAsked = p.answers.filter((a) => !flow.all.get(a.questionId)?.opening).length;
+  // Questions asked for the fitter's safety (what the machine drives) do not use up the diagnosis's questions.
+  const adaptiveAsked = p.answers.filter((a) => !flow.all.get(a.questionId)?.opening && !flow.all.get(a.questionId)?.source?.forSafety).length;
   if (adaptiveAsked >= MAX_ADAPTIVE_QUESTIONS) return { kind: 'done', why: `${MAX_ADAPTIVE_QUESTIONS} questions asked` };
   if (leaderIsClear(p.diagnosis)) return { kind: 'done', why: 'the leading cause is clear' };
   const d = p.diagnosis;

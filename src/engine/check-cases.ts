@@ -79,7 +79,7 @@ export class CaseTally {
 }
 
 /** Ranks one case file: a case, a file skipped with why, or its issues. */
-export async function rankCaseFile(file: string, causeIds: ReadonlySet<string>, run: CaseRunner, replay?: LoopReplayer): Promise<CaseRank | { skipped: SkippedCase } | { issues: Issue[] }> {
+export async function rankCaseFile(file: string, causeIds: ReadonlySet<string>, run: CaseRunner, replay?: LoopReplayer, same: (a: string, b: string) => boolean = (a, b) => a === b): Promise<CaseRank | { skipped: SkippedCase } | { issues: Issue[] }> {
   const c = loadCaseFile(file, causeIds);
   if (!c.ok) return { issues: c.issues };
   const { job, raw } = c.value;
@@ -87,7 +87,7 @@ export async function rankCaseFile(file: string, causeIds: ReadonlySet<string>, 
   if (expected === undefined) return { skipped: { file, why: job.outcome?.newCause ? 'new-cause' : 'no-outcome' } };
   const { ranked, questionsAsked } = await run(job, raw);
   const loop = replay && job.checks?.length ? await replay(job, expected) : undefined;
-  return { id: job.id ?? file, file, expected, rank: ranked.indexOf(expected) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}), ...(loop ? { loop } : {}) };
+  return { id: job.id ?? file, file, expected, rank: ranked.findIndex((c) => same(c, expected)) + 1, ranked: ranked.slice(0, 5), ...(questionsAsked ? { questionsAsked } : {}), ...(loop ? { loop } : {}) };
 }
 
 /** The runner that diagnoses a whole case with one engine for all: the rules' own ranking, its recorded checks replayed apart. */
@@ -96,9 +96,19 @@ export function wholeCaseRunner(base: RuleBase): CaseRunner {
   return async (c) => ({ ranked: (await diagnose({ ...c, checks: [] }, base, engine)).causes.map((x) => x.id) });
 }
 
+/**
+ * Whether two cause ids name the same fault for scoring a recorded job: the same id, or one that
+ * refines the other (a job filed under the broader cause keeps its meaning when a narrower one is added).
+ */
+export function sameCause(base: RuleBase): (a: string, b: string) => boolean {
+  const broader = new Map(base.causes.flatMap((c) => (c.refines ? [[c.id, c.refines] as const] : [])));
+  return (a, b) => a === b || broader.get(a) === b || broader.get(b) === a;
+}
+
 /** Replays a case's recorded checks in order: where the loop confirmed a cause, and after how many minutes. */
 export function loopReplayer(base: RuleBase): LoopReplayer {
   const engine = buildEngine(base);
+  const same = sameCause(base);
   const minutesOf = new Map(base.checks.map((c) => [c.id, c.minutes]));
   return async (job, expected) => {
     const checks = job.checks ?? [];
@@ -106,7 +116,7 @@ export function loopReplayer(base: RuleBase): LoopReplayer {
     for (let k = 1; k <= checks.length; k++) {
       minutes += minutesOf.get(checks[k - 1]!.id) ?? 0;
       const d = await diagnose({ ...job, checks: checks.slice(0, k) }, base, engine);
-      if (d.status === 'confirmed') return { worked: checks.length, confirmed: d.confirmed, correct: d.confirmed === expected, minutes, after: k };
+      if (d.status === 'confirmed') return { worked: checks.length, confirmed: d.confirmed, correct: d.confirmed !== null && same(d.confirmed, expected), minutes, after: k };
     }
     return { worked: checks.length, confirmed: null, correct: false, minutes, after: checks.length };
   };
@@ -130,13 +140,14 @@ export class CaseIssues {
 export async function checkCases(files: string[], base: RuleBase, runner?: CaseRunner, stream: CaseStream = {}): Promise<Result<CaseCheckReport>> {
   const run = runner ?? wholeCaseRunner(base);
   const replay = loopReplayer(base);
+  const same = sameCause(base);
   const causeIds = new Set(base.causes.map((c) => c.id));
   const issues = new CaseIssues();
   const tally = new CaseTally();
   const cases: CaseRank[] = [];
   const skipped: SkippedCase[] = [];
   for (const [k, file] of files.entries()) {
-    const r = await rankCaseFile(file, causeIds, run, replay);
+    const r = await rankCaseFile(file, causeIds, run, replay, same);
     if ('issues' in r) issues.add(r.issues);
     else if ('skipped' in r) skipped.push(r.skipped);
     else {

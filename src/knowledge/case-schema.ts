@@ -53,6 +53,7 @@ const nameplateFields = z.strictObject({
   speed: rated('speed', 'rated (full-load) speed, or base and top speed written as "1750/2300 r/min"').optional(),
   maxSpeed: rated('speed', 'top of the field-weakening range (drive motors)').optional(),
   noLoadSpeed: rated('speed', 'no-load speed').optional(),
+  noLoadCurrent: rated('current', 'no-load armature current at rated voltage, from the plate or the test sheet').optional(),
   power: rated('power', 'rated output').optional(),
   fieldVoltage: rated('voltage', 'rated field voltage').optional(),
   fieldCurrent: rated('current', 'rated (hot) field current').optional(),
@@ -84,6 +85,7 @@ export const machineSchema = z.strictObject({
   resistances: resistances.optional().meta({ description: 'winding resistances measured cold, with the temperature they were measured at' }),
   magnetization: magnetization.optional(),
   brushDrop: quantity('voltage', 'total brush contact drop').optional(),
+  starterSteps: z.array(quantity('resistance', 'one step of the armature starter')).min(1).max(20).optional().meta({ description: 'resistance of each starter step, first (cut out first) to last' }),
   insulationSystem: z.enum(INSULATION_SYSTEMS).optional().meta({ description: 'thermosetting (epoxy, polyester; the default) or thermoplastic (asphaltic, shellac): IEEE 43-2013 corrects them differently' }),
   windingMaterial: z.enum(WINDING_MATERIALS).optional().meta({ description: 'copper (the default) or aluminium windings, for resistance against temperature' }),
 });
@@ -92,6 +94,7 @@ export const machineSchema = z.strictObject({
 export const READING_FIELDS = {
   armatureVoltage: { dimension: 'voltage', says: "the machine's terminal voltage" },
   supplyVoltage: { dimension: 'voltage', says: 'voltage at the supply or drive end' },
+  starterResistance: { dimension: 'resistance', says: 'starter or external resistance still in the armature circuit at the step the starter is on (0 at run)' },
   armatureCurrent: { dimension: 'current', says: 'armature current' },
   fieldVoltage: { dimension: 'voltage', says: 'field voltage' },
   fieldCurrent: { dimension: 'current', says: 'shunt or separate field current' },

@@ -180,6 +180,12 @@ export function crossCheck(base: RuleBase): Issue[] {
       if (!checkIds.has(ch)) issues.push(issue(f('causes.json'), `causes[${k}].checks[${j}]`, `cause "${c.id}" names check "${ch}", which checks.json does not define`));
     }),
   );
+  base.causes.forEach((c, k) => {
+    if (c.refines === undefined) return;
+    if (c.refines === c.id) issues.push(issue(f('causes.json'), `causes[${k}].refines`, `cause "${c.id}" cannot refine itself`));
+    else if (!causeIds.has(c.refines)) issues.push(issue(f('causes.json'), `causes[${k}].refines`, `cause "${c.id}" refines "${c.refines}", which causes.json does not define`));
+    else if (base.causes.find((x) => x.id === c.refines)?.refines !== undefined) issues.push(issue(f('causes.json'), `causes[${k}].refines`, `cause "${c.id}" refines "${c.refines}", which itself refines another cause: refine the broadest one`));
+  });
   const retired = new Map((base.retiredChecks ?? []).map((r) => [r.id, r]));
   base.checks.forEach((c, k) => {
     const where = `checks[${k}] (${c.id})`;

@@ -59,6 +59,8 @@ export const causeSchema = z.strictObject({
   description: z.string().min(1),
   /** Only these machines can have this fault; absent = all. */
   appliesTo: appliesTo.optional(),
+  /** A broader cause this one narrows (a starter resistance open is an open armature circuit): jobs filed under either count for both. */
+  refines: id.optional(),
   checks: z.array(id).min(1),
 });
 export const causesFile = z.strictObject({ causes: z.array(causeSchema).min(1) });
@@ -124,6 +126,8 @@ export const questionSchema = z.strictObject({
   needsRunning: z.boolean().optional(),
   /** Context before detail: asked only once these questions are answered (each asked first if need be). */
   askAfter: z.array(id).min(1).optional(),
+  /** Asked so that checks are offered safely (what the machine drives): not counted against the question limit. */
+  forSafety: z.boolean().optional(),
 });
 export const questionsFile = z.strictObject({ questions: z.array(questionSchema).min(1) });
 
@@ -167,7 +171,8 @@ export const safetyFile = z.strictObject({
 
 export const sharedConditionsFile = z.strictObject({ conditions: z.record(id, conditionSchema) });
 
-const ruleBase = { name: id, conditions: conditionSchema, says: z.string().min(1).optional() };
+/** `source`: where the rule's knowledge comes from (a standard's clause, a textbook, a public manual, or "common practice"). */
+const ruleBase = { name: id, conditions: conditionSchema, says: z.string().min(1).optional(), source: z.string().min(1).optional() };
 
 export const ruleSchema = z.discriminatedUnion('kind', [
   /** Derives an intermediate fact (true) for other rules. */

@@ -20,7 +20,7 @@ const PROBE_READINGS: Required<Omit<Readings, 'insulationTestedWinding'>> = {
   speed: 1450, speedReverse: 1440, noLoadArmatureCurrent: 3, ambientTemperature: 25, armatureResistanceHot: 0.5,
   shuntFieldResistanceHot: 240, insulationResistance1min: 100, insulationResistance10min: 250, insulationTestTemperature: 30,
   insulationTestVoltage: 500, tachoVoltage: 86, currentLimitSetting: 60, brushLength: 20, brushLengthNew: 32,
-  brushSpringPressure: 18, commutatorRunout: 0.02, fieldCurrentSetting: 1, fieldTemperature: 60,
+  brushSpringPressure: 18, commutatorRunout: 0.02, fieldCurrentSetting: 1, fieldTemperature: 60, starterResistance: 0,
 };
 
 export function quantitiesFedBy(reading: string): QuantityName[] {

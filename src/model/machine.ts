@@ -63,6 +63,8 @@ export interface Nameplate {
   /** Top of the field-weakening range (a plate written "1750/2300 r/min" gives base and top). */
   maxSpeed?: number | undefined;
   noLoadSpeed?: number | undefined;
+  /** Armature current running uncoupled at rated voltage, from the plate or the test sheet: the no-load reference for any connection. */
+  noLoadCurrent?: number | undefined;
   power?: number | undefined;
   fieldVoltage?: number | undefined;
   fieldCurrent?: number | undefined;
@@ -94,6 +96,8 @@ export interface MachineData {
 export interface Readings {
   armatureVoltage?: number | undefined;
   supplyVoltage?: number | undefined;
+  /** Starter or external resistance still in the armature circuit, between the supply and the terminals (0 at run). */
+  starterResistance?: number | undefined;
   armatureCurrent?: number | undefined;
   fieldVoltage?: number | undefined;
   fieldCurrent?: number | undefined;

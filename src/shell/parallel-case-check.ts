@@ -7,7 +7,7 @@
 import { availableParallelism } from 'node:os';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import { dirname } from 'node:path';
-import { CaseIssues, CaseTally, checkCases, loopReplayer, rankCaseFile, wholeCaseRunner, type CaseCheckReport, type CaseRank, type CaseStream, type SkippedCase } from '../engine/check-cases.js';
+import { CaseIssues, CaseTally, checkCases, loopReplayer, rankCaseFile, sameCause, wholeCaseRunner, type CaseCheckReport, type CaseRank, type CaseStream, type SkippedCase } from '../engine/check-cases.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import { ok, type Issue, type Result } from '../knowledge/result.js';
 
@@ -41,6 +41,7 @@ export function runCaseCheckWorker(job: { rules: string }, loadRules: (dir: stri
   }
   const run = wholeCaseRunner(base.value);
   const replay = loopReplayer(base.value);
+  const same = sameCause(base.value);
   const causeIds = new Set(base.value.causes.map((c) => c.id));
   return new Promise((resolve) => {
     port.on('message', (m: ToWorker) => {
@@ -51,7 +52,7 @@ export function runCaseCheckWorker(job: { rules: string }, loadRules: (dir: stri
       }
       void (async () => {
         const results: Ranked[] = [];
-        for (const file of m.files) results.push(await rankCaseFile(file, causeIds, run, replay));
+        for (const file of m.files) results.push(await rankCaseFile(file, causeIds, run, replay, same));
         port.postMessage({ batch: m.batch, results } satisfies FromWorker);
       })();
     });
@@ -98,10 +99,11 @@ export async function checkCasesInParallel(files: string[], base: RuleBase, rule
         working = true;
         const here = wholeCaseRunner(base);
         const replayHere = loopReplayer(base);
+        const sameHere = sameCause(base);
         const causeIds = new Set(base.causes.map((c) => c.id));
         for (let batch = pending.shift(); batch !== undefined; batch = pending.shift()) {
           const results: Ranked[] = [];
-          for (const file of batches[batch]!) results.push(await rankCaseFile(file, causeIds, here, replayHere));
+          for (const file of batches[batch]!) results.push(await rankCaseFile(file, causeIds, here, replayHere, sameHere));
           arrived.set(batch, results);
           report();
         }

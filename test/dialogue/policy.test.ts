@@ -7,11 +7,13 @@ import { buildFlow } from '../../src/dialogue/flow.js';
 import { rankQuestions, chooseQuestion, MIN_GAIN_BITS } from '../../src/dialogue/policy.js';
 import { replayCase } from '../../src/dialogue/replay.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
+import { sameCause } from '../../src/engine/check-cases.js';
 import { builtInRules, CASES_DIR, diagnoseJob } from '../support/rules.js';
 
 const base = builtInRules();
 const flow = buildFlow(base);
 const engine = buildEngine(base);
+const same = sameCause(base);
 const files = readdirSync(CASES_DIR).filter((f) => f.endsWith('.json')).sort();
 
 describe('adaptive replay of the recorded cases', () => {
@@ -21,7 +23,8 @@ describe('adaptive replay of the recorded cases', () => {
       if (!raw.ok) throw new Error(JSON.stringify(raw.issues));
       const c = raw.value as CaseInput;
       const r = await replayCase(c, flow, engine);
-      expect(r.diagnosis.causes.slice(0, 3).map((x) => x.id)).toContain(c.outcome?.cause);
+      // A cause that refines the recorded one, or the one it refines, counts as the same fault (as in cases check).
+      expect(r.diagnosis.causes.slice(0, 3).some((x) => same(x.id, c.outcome!.cause!)), `top 3: ${r.diagnosis.causes.slice(0, 3).map((x) => x.id).join(', ')}`).toBe(true);
       expect(new Set(r.questionsAsked).size).toBe(r.questionsAsked.length);
     });
   }

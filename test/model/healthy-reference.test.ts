@@ -120,3 +120,35 @@ describe('readings far from the plate', () => {
     expect(codes({ machine: shunt, readings: { armatureVoltage: 231, fieldCurrent: 0.7, armatureCurrent: 30 } })).not.toContain('reading-far-from-plate');
   });
 });
+
+describe('a starter resistance in the armature circuit', () => {
+  // An invented 220 V shunt motor on a fixed supply, field 1.0 A hot at 220 V.
+  const shunt: ModelInput['machine'] = { connection: 'shunt', drive: 'fixed-supply', nameplate: { armatureVoltage: 220, armatureCurrent: 40, speed: 1500, fieldVoltage: 220, fieldCurrent: 1 } };
+
+  it('feeds the shunt field from the supply side of the starter, not the terminals (three- and four-point starters: NEETS Module 5, NAVEDTRA 14177)', () => {
+    // 225 V at the supply, 1.3 Ω left in by the starter at 38 A: 176 V at the terminals. The field sees 225 V: 1.0 A × 225/220.
+    const q = quantityOf({ machine: shunt, readings: { supplyVoltage: 225, armatureVoltage: 176, armatureCurrent: 38, starterResistance: 1.3 } }, 'fieldCurrent');
+    expect(q.value).toBeCloseTo(225 / 220, 4);
+    expect(q.formula).toMatch(/ahead of the starter/);
+  });
+
+  it('follows the terminals again once every step is cut out', () => {
+    expect(quantityOf({ machine: shunt, readings: { supplyVoltage: 225, armatureVoltage: 176, starterResistance: 0 } }, 'fieldCurrent').value).toBeCloseTo(176 / 220, 4);
+  });
+
+  it('reads the steps and the resistance left in from a case file', () => {
+    const parsed = caseSchema.parse({ format: 'dc-case/1', machine: { ...shunt, starterSteps: ['1.3 ohm', '0.8 ohm', '0.5 ohm'] }, readings: { starterResistance: '1.3 ohm' } });
+    expect(parsed.machine.starterSteps).toEqual([1.3, 0.8, 0.5]);
+    expect(parsed.readings?.starterResistance).toBe(1.3);
+  });
+});
+
+describe('the no-load reference point', () => {
+  it("takes the plate's no-load current as the reference for any connection, before the 10 % rule of thumb (common practice)", () => {
+    const plate = { armatureVoltage: 230, armatureCurrent: 60, speed: 1150, fieldCurrent: 1.4 };
+    const compound: ModelInput['machine'] = { connection: 'compound-cumulative', nameplate: { ...plate, noLoadCurrent: 4.2 } };
+    expect(quantityOf({ machine: compound, readings: { noLoadArmatureCurrent: 4.4 } }, 'noLoadCurrent').value).toBe(4.2);
+    // Without it: 10 % of the rated 60 A.
+    expect(quantityOf({ machine: { ...compound, nameplate: plate }, readings: { noLoadArmatureCurrent: 4.4 } }, 'noLoadCurrent').value).toBeCloseTo(6, 4);
+  });
+});

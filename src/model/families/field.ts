@@ -20,7 +20,8 @@ export function healthyField(ctx: ModelContext): void {
   const np = machine.nameplate ?? {};
   const res = machine.resistances ?? {};
   const ratedVf = d.ratedFieldVoltage;
-  const measuredVf = readings.fieldVoltage ?? (traits.fieldAcrossTerminals ? readings.armatureVoltage : undefined);
+  const fieldSupply = shuntFieldSupply(ctx);
+  const measuredVf = readings.fieldVoltage ?? (traits.fieldAcrossTerminals ? fieldSupply?.volts : undefined);
   if (ratedVf !== undefined) {
     addQuantity(ctx, 'ratedFieldVoltage', { value: ratedVf, unit: 'V', measured: measuredVf, formula: np.fieldVoltage !== undefined ? 'nameplate' : 'terminal voltage (field across the armature)' });
   }
@@ -42,10 +43,10 @@ export function healthyField(ctx: ModelContext): void {
     formula = `field weakened by the drive above base speed: the field that keeps the armature at its rated ${fmt(np.armatureVoltage!, 'V')} at ${fmt(readings.speed!, 'rpm')}`;
     assume(ctx, `speed ${fmt(readings.speed!, 'rpm')} is within the plate's field-weakening range (${fmt(np.speed!, 'rpm')} to ${fmt(np.maxSpeed!, 'rpm')}): a field below its rating there is the drive's doing`);
   } else {
-    if (traits.fieldAcrossTerminals && readings.armatureVoltage !== undefined && ratedVf !== undefined && ratedVf > 0) {
-      // A shunt field is fed from the supply the machine gets: a healthy one follows the terminal voltage.
-      reference = (rated * readings.armatureVoltage) / ratedVf;
-      formula = `If = If,rated · V/V,rated (shunt field across the terminals)`;
+    if (traits.fieldAcrossTerminals && fieldSupply !== undefined && ratedVf !== undefined && ratedVf > 0) {
+      // A shunt field is fed from the supply the machine gets: a healthy one follows that voltage.
+      reference = (rated * fieldSupply.volts) / ratedVf;
+      formula = `If = If,rated · V/V,rated (shunt field across ${fieldSupply.where})`;
     } else if (!traits.fieldAcrossTerminals && ratedVf !== undefined) {
       assume(ctx, `separately fed field: a healthy field supply gives its rated ${fmt(ratedVf, 'V')}, so a field current below the plate is a fault wherever it comes from`);
     }
@@ -70,6 +71,17 @@ export function healthyField(ctx: ModelContext): void {
       addQuantity(ctx, 'fieldCurrentAtMeasuredVoltage', { value: perVolt * readings.fieldVoltage, unit: 'A', measured: readings.fieldCurrent, formula: 'If = If,rated · Vf/Vf,rated (the winding at the voltage measured across it)' });
     }
   }
+}
+
+/**
+ * The voltage a shunt field sees. A starter puts its resistance between the supply and the
+ * armature, with the shunt field on the supply side of it (as in three- and four-point starters),
+ * so while a step is in, the field gets the supply voltage, not the lower terminal voltage.
+ */
+function shuntFieldSupply(ctx: ModelContext): { volts: number; where: string } | undefined {
+  const { readings } = ctx;
+  if ((readings.starterResistance ?? 0) > 0 && readings.supplyVoltage !== undefined) return { volts: readings.supplyVoltage, where: 'the supply, ahead of the starter resistance' };
+  return readings.armatureVoltage === undefined ? undefined : { volts: readings.armatureVoltage, where: 'the terminals' };
 }
 
 /**

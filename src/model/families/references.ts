@@ -74,7 +74,11 @@ export function plainReferences(ctx: ModelContext): void {
   if (readings.commutatorRunout !== undefined) {
     addQuantity(ctx, 'commutatorRunout', { value: COMMUTATOR_RUNOUT_LIMIT_MM, unit: 'mm', measured: readings.commutatorRunout, formula: 'runout limit (common practice)' });
   }
-  if (readings.noLoadArmatureCurrent !== undefined && d.ratedIa !== undefined) {
+  const plateNoLoad = ctx.machine.nameplate?.noLoadCurrent;
+  if (readings.noLoadArmatureCurrent !== undefined && plateNoLoad !== undefined) {
+    // The machine's own no-load point, for any connection, is a better reference than a share of rated.
+    addQuantity(ctx, 'noLoadCurrent', { value: plateNoLoad, unit: 'A', measured: readings.noLoadArmatureCurrent, formula: 'no-load armature current against the plate or test-sheet value' });
+  } else if (readings.noLoadArmatureCurrent !== undefined && d.ratedIa !== undefined) {
     addQuantity(ctx, 'noLoadCurrent', { value: NO_LOAD_CURRENT_SHARE * d.ratedIa, unit: 'A', measured: readings.noLoadArmatureCurrent, formula: 'no-load armature current up to 10 % of rated (common practice)' });
   }
   for (const [name, limit] of Object.entries(PLAUSIBLE_MULTIPLE) as [keyof Readings, { multiple: number; words: string; unit: string }][]) {
