@@ -7,18 +7,10 @@
  * Noise is a uniform ±3 % on every reading (a meter's stated accuracy).
  */
 import { pairsThrough, windingRings, type WindingKind, type WindingRing } from '../../src/model/series/winding.js';
+import { random } from '../../src/model/fits/generate.js';
 
-/** A small deterministic generator (mulberry32), so a bench run can be repeated from its seed. */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** A small deterministic generator (mulberry32, shared with the fault-case generator), so a bench run can be repeated from its seed. */
+export const rng = random;
 
 export interface Bridge {
   a: number;
