@@ -51,7 +51,7 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
         lines.push('   Before the next check, isolate:');
         d.isolation.steps.forEach((s, i) => lines.push(`     ${String.fromCharCode(97 + i)}. ${s}`));
       }
-      lines.push(`${String(k + 1).padStart(2)}. ${c.title} [${STATE_WORDS[c.state]}, ~${c.minutes} min] — for: ${c.causes.map((id) => title.get(id) ?? id).join('; ')}`);
+      lines.push(`${String(k + 1).padStart(2)}. ${c.title} [${c.state === 'observe' && !c.running ? 'look (no contact, machine need not run)' : STATE_WORDS[c.state]}, ~${c.minutes} min] — for: ${c.causes.map((id) => title.get(id) ?? id).join('; ')}`);
       lines.push(`      ${c.how}`);
       if (c.insteadOf) lines.push(`      (offered instead of "${d.withheld.find((w) => w.id === c.insteadOf)?.title ?? c.insteadOf}", which is not safe for this job)`);
       const hazards = c.hazardsSay.map((h) => h.split(':')[0]!.trim());
