@@ -1,4 +1,5 @@
 /** Rendering the dialogue in tests and typing into it. */
+import { EventEmitter } from 'node:events';
 import { render } from 'ink-testing-library';
 import { buildFlow } from '../../src/dialogue/flow.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
@@ -9,6 +10,20 @@ import { Dialogue } from '../../src/ui/Dialogue.js';
 import { builtInRules } from './rules.js';
 
 export const settle = (ms = 25) => new Promise((r) => setTimeout(r, ms));
+
+/** A terminal's stdout of a chosen width for Ink's own render (ink-testing-library fixes its width at 100); it keeps what is written. */
+export class FakeStdout extends EventEmitter {
+  rows = 24;
+  isTTY = true;
+  written = '';
+  constructor(public columns = 80) {
+    super();
+  }
+  write = (chunk: string) => {
+    this.written += chunk;
+    return true;
+  };
+}
 
 export function renderDialogue(opts: { initialAnswers?: Answer[]; initialWork?: WorkEntry[]; initialProgress?: SavedProgress; machineFile?: unknown; work?: WorkRules } = {}) {
   const base = builtInRules();

@@ -12,18 +12,7 @@ import { buildEngine } from '../../src/engine/run-rules.js';
 import { Dialogue } from '../../src/ui/Dialogue.js';
 import { guardedStdin, inputFilter, PASTED_LINE_BREAK } from '../../src/ui/guarded-stdin.js';
 import { builtInRules } from '../support/rules.js';
-import { settle } from '../support/dialogue.js';
-
-class Stdout extends EventEmitter {
-  columns = 80;
-  rows = 24;
-  isTTY = true;
-  written = '';
-  write = (chunk: string) => {
-    this.written += chunk;
-    return true;
-  };
-}
+import { FakeStdout, settle } from '../support/dialogue.js';
 
 /** A terminal's stdin that hands Ink the bytes it is fed, as a raw-mode TTY stream does. */
 class FedStdin extends EventEmitter {
@@ -55,7 +44,7 @@ const bytes = fc.oneof(
 describe('bytes at the terminal (property test, real input path)', () => {
   it('are taken or refused, and the dialogue goes on', async () => {
     const stdin = new FedStdin();
-    const stdout = new Stdout();
+    const stdout = new FakeStdout(80);
     const app = render(<Dialogue ctx={{ flow }} engine={engine} safetyNotice={base.safety.notice} color={false} />, {
       stdout: stdout as unknown as NodeJS.WriteStream,
       stdin: guardedStdin(stdin as unknown as NodeJS.ReadStream),

@@ -5,19 +5,7 @@ import { buildFlow } from '../../src/dialogue/flow.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
 import { Dialogue } from '../../src/ui/Dialogue.js';
 import { builtInRules } from '../support/rules.js';
-import { settle } from '../support/dialogue.js';
-
-/** A stdout of 60 columns: ink-testing-library fixes its width at 100, so this uses Ink's own render. */
-class NarrowStdout extends EventEmitter {
-  columns = 60;
-  rows = 24;
-  isTTY = true;
-  written = '';
-  write = (chunk: string) => {
-    this.written += chunk;
-    return true;
-  };
-}
+import { FakeStdout, settle } from '../support/dialogue.js';
 
 class FakeStdin extends EventEmitter {
   isTTY = true;
@@ -33,7 +21,7 @@ class FakeStdin extends EventEmitter {
 describe('the dialogue at 60 columns', () => {
   it('keeps every line within the width', async () => {
     const base = builtInRules();
-    const stdout = new NarrowStdout();
+    const stdout = new FakeStdout(60);
     const app = render(<Dialogue ctx={{ flow: buildFlow(base) }} engine={buildEngine(base)} safetyNotice={base.safety.notice} color={false} />, {
       stdout: stdout as unknown as NodeJS.WriteStream,
       stdin: new FakeStdin() as unknown as NodeJS.ReadStream,
