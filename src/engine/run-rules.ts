@@ -49,13 +49,18 @@ export interface RuleEngines {
   judge: Engine;
 }
 
+/** "$.a" or "$.a.b": own properties only, walked one name at a time. */
 function readPath(value: unknown, path: string): unknown {
-  const name = path.slice(2);
-  return value !== null && typeof value === 'object' && Object.hasOwn(value, name) ? (value as Record<string, unknown>)[name] : undefined;
+  let at = value;
+  for (const name of path.slice(2).split('.')) {
+    if (at === null || typeof at !== 'object' || !Object.hasOwn(at, name)) return undefined;
+    at = (at as Record<string, unknown>)[name];
+  }
+  return at;
 }
 
 function newEngine(base: RuleBase): Engine {
-  // Paths are "$.name" (the schema allows no other): a property read, not a JSONPath query,
+  // Paths are "$.name" or "$.name.field" (the schema allows no other): property reads, not a JSONPath query,
   // which costs a thrown error per lookup and was a tenth of a diagnosis.
   const engine = new Engine([], { allowUndefinedFacts: true, pathResolver: readPath });
   // Observations are mostly unknown in a real job: these operators are false on an unknown fact.

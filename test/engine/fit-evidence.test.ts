@@ -1,0 +1,40 @@
+/**
+ * The fits reach the ranking: rules read the nested fact `fit` ("$.extraResistance.verdict"),
+ * and with symptoms and observations stripped the readings alone name the cause. The generated
+ * cases come from the machine equations with ±2 % noise (src/model/fits/generate.ts), not from
+ * any recorded case.
+ */
+import { describe, expect, it } from 'vitest';
+import { diagnose } from '../../src/engine/diagnose.js';
+import { buildEngine } from '../../src/engine/run-rules.js';
+import { loadCaseFile } from '../../src/knowledge/load-case.js';
+import { generatedFaultCases } from '../../src/model/fits/generate.js';
+import { builtInRules } from '../support/rules.js';
+
+const base = builtInRules();
+const engine = buildEngine(base);
+
+describe('fitted hypotheses as evidence', () => {
+  it('a burnt crimp, readings only: the fit rule for extra resistance fires and names the cause first', async () => {
+    const c = loadCaseFile('cases/2025-07-29-resaw-brush-lead-crimp.json');
+    if (!c.ok) throw new Error('case');
+    const d = await diagnose({ machine: c.value.job.machine, readings: c.value.job.readings ?? {} }, base, engine);
+    expect(d.causes[0]?.id).toBe('armature-circuit-high-resistance');
+    expect(d.causes[0]?.evidence.map((e) => e.rule)).toContain('fit-extra-resistance-best-high-resistance');
+    expect(d.causes[0]?.evidence.find((e) => e.rule === 'fit-extra-resistance-best-high-resistance')?.says).toMatch(/^an extra 0\.279 Ω in the armature circuit/);
+  });
+
+  it('names the cause of generated fault cases from readings alone: top-3 at least 95 %, top-1 at least 90 %', async () => {
+    const cases = generatedFaultCases({ seed: 4711, count: 120 });
+    let top1 = 0;
+    let top3 = 0;
+    for (const g of cases) {
+      const d = await diagnose({ machine: { ...g.job.machine, magnetization: undefined }, readings: g.job.readings } as never, base, engine);
+      const rank = d.causes.findIndex((x) => x.id === g.cause) + 1;
+      if (rank === 1) top1++;
+      if (rank >= 1 && rank <= 3) top3++;
+    }
+    expect(top3 / cases.length).toBeGreaterThanOrEqual(0.95);
+    expect(top1 / cases.length).toBeGreaterThanOrEqual(0.9);
+  });
+});
