@@ -13,6 +13,7 @@ import { loadCaseFile } from '../src/knowledge/load-case.js';
 import { buildEngine } from '../src/engine/run-rules.js';
 import { diagnose, type JobInput } from '../src/engine/diagnose.js';
 import { generatedFaultCases } from '../src/model/fits/generate.js';
+import { fitReadings } from '../src/model/fits/index.js';
 
 const verbose = process.argv.includes('--verbose');
 const root = new URL('..', import.meta.url).pathname;
@@ -38,6 +39,7 @@ function tally(label: string, ranks: { id: string; cause: string; rank: number; 
 }
 
 const recorded = [];
+const skipped: string[] = [];
 const dir = join(root, 'cases');
 for (const name of readdirSync(dir).filter((f) => f.endsWith('.json')).sort()) {
   const c = loadCaseFile(join(dir, name));
@@ -45,10 +47,16 @@ for (const name of readdirSync(dir).filter((f) => f.endsWith('.json')).sort()) {
   const job = c.value.job;
   const cause = job.outcome?.cause;
   if (!cause || !STEADY_STATE_CAUSES.includes(cause)) continue;
+  // Only a job with a running operating point (voltage, current, speed) shows a steady-state fault.
+  if (!fitReadings(job.machine, job.readings ?? {})) {
+    skipped.push(job.id ?? name);
+    continue;
+  }
   const stripped: JobInput = { machine: job.machine, readings: job.readings ?? {} };
   recorded.push({ id: job.id ?? name, cause, ...(await rankOf(stripped, cause)) });
 }
 tally('recorded cases, readings only', recorded);
+console.log(`  (${skipped.length} more have no running operating point to fit: ${skipped.join(', ')})`);
 
 const generated = [];
 for (const g of generatedFaultCases({ seed: 20261202, count: Number(process.env.GENERATED ?? 300) })) {
@@ -56,6 +64,12 @@ for (const g of generatedFaultCases({ seed: 20261202, count: Number(process.env.
   generated.push({ id: g.label, cause: g.cause, ...(await rankOf(job, g.cause)) });
 }
 tally('generated cases, readings only (±2 % noise)', generated);
+const plateOnly = [];
+for (const g of generatedFaultCases({ seed: 20261202, count: Number(process.env.GENERATED ?? 300) })) {
+  const job: JobInput = { machine: { ...g.job.machine, magnetization: undefined, resistances: undefined }, readings: g.job.readings };
+  plateOnly.push({ id: g.label, cause: g.cause, ...(await rankOf(job, g.cause)) });
+}
+tally('the same, from the plate alone (no winding resistances)', plateOnly);
 const byCause = new Map<string, typeof generated>();
 for (const g of generated) byCause.set(g.cause, [...(byCause.get(g.cause) ?? []), g]);
 for (const [cause, list] of [...byCause].sort()) tally(`  ${cause}`, list);

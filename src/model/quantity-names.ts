@@ -34,6 +34,7 @@ export const QUANTITY_LABELS = {
   brushSpringPressure: 'spring pressure vs lowest',
   commutatorRunout: 'commutator runout vs limit',
   noLoadCurrent: 'no-load current vs normal',
+  starterResistance: 'starter resistance left in at run',
 } as const;
 
 export type QuantityName = keyof typeof QUANTITY_LABELS;

@@ -10,6 +10,8 @@ import { buildEngine } from '../../src/engine/run-rules.js';
 import { loadCaseFile } from '../../src/knowledge/load-case.js';
 import { generatedFaultCases } from '../../src/model/fits/generate.js';
 import { builtInRules } from '../support/rules.js';
+import { computeExpectations } from '../../src/model/expected.js';
+import { typicalEfficiency } from '../../src/model/families/rated-point.js';
 
 const base = builtInRules();
 const engine = buildEngine(base);
@@ -24,17 +26,34 @@ describe('fitted hypotheses as evidence', () => {
     expect(d.causes[0]?.evidence.find((e) => e.rule === 'fit-extra-resistance-best-high-resistance')?.says).toMatch(/^an extra 0\.279 Ω in the armature circuit/);
   });
 
-  it('names the cause of generated fault cases from readings alone: top-3 at least 95 %, top-1 at least 90 %', async () => {
+  it.each([
+    ['with the winding resistances measured', false],
+    ['from the plate alone (no resistances, no output: a usual efficiency for the size)', true],
+  ])('names the cause of generated fault cases from readings alone, %s: top-3 at least 95 %, top-1 at least 90 %', async (_, plateOnly) => {
     const cases = generatedFaultCases({ seed: 4711, count: 120 });
     let top1 = 0;
     let top3 = 0;
     for (const g of cases) {
-      const d = await diagnose({ machine: { ...g.job.machine, magnetization: undefined }, readings: g.job.readings } as never, base, engine);
+      const machine = { ...g.job.machine, magnetization: undefined, ...(plateOnly ? { resistances: undefined } : {}) };
+      const d = await diagnose({ machine, readings: g.job.readings } as never, base, engine);
       const rank = d.causes.findIndex((x) => x.id === g.cause) + 1;
       if (rank === 1) top1++;
       if (rank >= 1 && rank <= 3) top3++;
     }
     expect(top3 / cases.length).toBeGreaterThanOrEqual(0.95);
     expect(top1 / cases.length).toBeGreaterThanOrEqual(0.9);
+  });
+
+  it('estimates the armature circuit from the size when the plate gives neither resistance nor output, and says so', () => {
+    // Usual full-load efficiencies (from memory of makers' lists): about 84 % at 5 kW input, 90 % at 50 kW.
+    expect(typicalEfficiency(5000)).toBeCloseTo(0.84, 6);
+    expect(typicalEfficiency(50_000)).toBeCloseTo(0.9, 6);
+    expect(typicalEfficiency(15_000)).toBeGreaterThan(0.84);
+    expect(typicalEfficiency(15_000)).toBeLessThan(0.9);
+    const e = computeExpectations({ machine: { connection: 'shunt', drive: 'fixed-supply', nameplate: { armatureVoltage: 220, armatureCurrent: 24, speed: 1500, fieldCurrent: 0.8 } }, readings: {} });
+    // 220 V × (24 A armature + 0.8 A shunt field) = 5,456 W in: efficiency about 85 %, half the losses in the armature circuit.
+    expect(e.quantities.armatureCircuitResistance?.value).toBeCloseTo((0.5 * 5456 * (1 - typicalEfficiency(5456))) / 576, 3);
+    expect(e.quantities.armatureCircuitResistance?.basis).toBe('estimated');
+    expect(e.assumptions.join(' ')).toMatch(/no resistance or output on the plate, so the efficiency is taken as 84 %/);
   });
 });

@@ -12,6 +12,29 @@ import { addQuantity, assume, find, fmt, needs, radSToRpm, rpmToRadS, type Model
 
 /** Brush contact drop for carbon brushes, both polarities together (common practice). */
 export const DEFAULT_BRUSH_DROP_V = 2;
+
+/**
+ * Full-load efficiency usual for an industrial DC motor of a given input (from memory of
+ * makers' lists; common practice): about 70 % at 0.5 kW, 84 % at 5 kW, 90 % at 50 kW and 94 %
+ * at 500 kW, straight between those on a logarithmic scale of power.
+ */
+const TYPICAL_EFFICIENCY: readonly [watts: number, efficiency: number][] = [
+  [500, 0.7],
+  [5_000, 0.84],
+  [50_000, 0.9],
+  [500_000, 0.94],
+];
+
+export function typicalEfficiency(inputWatts: number): number {
+  const t = TYPICAL_EFFICIENCY;
+  if (inputWatts <= t[0]![0]) return t[0]![1];
+  for (let k = 1; k < t.length; k++) {
+    const [w1, e1] = t[k]!;
+    const [w0, e0] = t[k - 1]!;
+    if (inputWatts <= w1) return e0 + ((e1 - e0) * Math.log(inputWatts / w0)) / Math.log(w1 / w0);
+  }
+  return t.at(-1)![1];
+}
 /** Cold field resistance at working temperature and plate Vf/If disagreeing by more is a finding. */
 const FIELD_RESISTANCE_TOLERANCE = 0.15;
 
@@ -82,6 +105,13 @@ export function ratedPoint(ctx: ModelContext): void {
     d.circuitR = raWarm;
     d.circuitEstimated = true;
     assume(ctx, 'series field resistance not given: armature circuit resistance taken as the armature alone');
+  } else if (np.armatureVoltage !== undefined && inputCurrent !== undefined && ratedIa !== undefined && ratedIa > 0) {
+    // No resistance and no output on the plate: the losses a machine of this size usually has.
+    const input = np.armatureVoltage * inputCurrent;
+    const efficiency = typicalEfficiency(input);
+    d.circuitR = (0.5 * input * (1 - efficiency)) / (ratedIa * ratedIa);
+    d.circuitEstimated = true;
+    assume(ctx, `armature circuit resistance estimated as ${fmt(d.circuitR, 'Ω')}: no resistance or output on the plate, so the efficiency is taken as ${Math.round(efficiency * 100)} %, usual for a ${fmt(input, 'W')} DC motor (from memory), with half the losses in the armature circuit; measure the armature resistance to judge the readings more closely`);
   }
   // A resistance estimated from the plate losses already carries the brush loss (½ of V·I − P).
   const fromPlateLosses = d.circuitEstimated && raWarm === undefined;

@@ -52,6 +52,9 @@ export function plateValueFor(reading: keyof Readings, ctx: Pick<ModelContext, '
 
 export function plainReferences(ctx: ModelContext): void {
   const { readings, machine, derived: d } = ctx;
+  if (readings.starterResistance !== undefined) {
+    addQuantity(ctx, 'starterResistance', { value: 0, unit: 'ohm', measured: readings.starterResistance, formula: 'at the run position every starter step is cut out' });
+  }
   if (readings.speedReverse !== undefined && readings.speed !== undefined && readings.speed > 0) {
     addQuantity(ctx, 'speedReverse', { value: readings.speed, unit: 'rpm', measured: readings.speedReverse, formula: 'speed the other way at the same set-point should equal the forward speed' });
   }
