@@ -3,6 +3,7 @@
  * causes no rule can reach, rules that can never fire, a cause ruled out and supported by the
  * same conditions, questions no rule uses.
  */
+import { FIT_INPUTS } from '../model/fits/index.js';
 import { placeholderTexts } from './draft-placeholders.js';
 import { join } from 'node:path';
 import type { RuleBase } from '../knowledge/load-rules.js';
@@ -89,7 +90,7 @@ export function reviewRuleBase(base: RuleBase): RuleFinding[] {
   base.questions.forEach((q, k) => {
     const used =
       q.answer.kind === 'choice' ? read.has(q.answer.observation) :
-      q.answer.kind === 'quantity' ? quantitiesFedBy(q.answer.reading).some((name) => quantitiesRead.has(name)) :
+      q.answer.kind === 'quantity' ? quantitiesFedBy(q.answer.reading).some((name) => quantitiesRead.has(name)) || (read.has('fit') && FIT_INPUTS.includes(q.answer.reading)) :
       q.answer.kind === 'series' ? read.has('testFindings') :
       read.has('symptoms');
     if (!used) findings.push({ kind: 'unused-question', file: questionsFile, about: `questions[${k}] (${q.id})`, message: `no rule uses the answer to question "${q.id}"` });

@@ -101,7 +101,9 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
   const job = withCheckFindings(input, worked);
   const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
   const analyses = analyseTests(job);
-  const { facts, fired, askable, askFirst, unsafe, cautions } = await runToFixpoint(engine, base, jobFacts(job, expectation, analyses));
+  // Each check that read voltage, current and speed again is an operating point of its own.
+  const otherPoints = worked.length ? [{ label: 'first readings', readings: input.readings ?? {} }, ...worked.map((w) => ({ label: w.id, readings: w.readings ?? {} }))] : [];
+  const { facts, fired, askable, askFirst, unsafe, cautions } = await runToFixpoint(engine, base, jobFacts(job, expectation, analyses, otherPoints));
   // A derived fact is explained by what the rule that derived it saw, recursively.
   const derivedBy = new Map(fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])));
   const words = new Map<string, string>();

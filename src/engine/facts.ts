@@ -12,7 +12,13 @@ import { fitFacts } from '../model/fits/index.js';
 
 export type Facts = Record<string, unknown>;
 
-export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'tests'> & { readings?: CaseFile['readings'] }, e: Expectation, analyses: Analyses = analyseTests(c)): Facts {
+export function jobFacts(
+  c: Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 'tests'> & { readings?: CaseFile['readings'] },
+  e: Expectation,
+  analyses: Analyses = analyseTests(c),
+  /** Readings taken at other operating points (before the worked checks, and by them), for the circuit fit. */
+  otherPoints: readonly { label: string; readings: NonNullable<CaseFile['readings']> }[] = [],
+): Facts {
   const traits = CONNECTION_TRAITS[c.machine.connection];
   const facts: Facts = {
     connection: c.machine.connection,
@@ -37,7 +43,7 @@ export function jobFacts(c: Pick<CaseFile, 'machine' | 'symptoms' | 'observation
     // Test series: finding codes for the rules, sentences for their `says` ({tests:barToBar}).
     ...seriesFacts(analyses),
     // Each fault hypothesis fitted to the readings (src/model/fits): its verdict, value and words.
-    ...fitFacts(c.machine, c.readings ?? {}),
+    ...fitFacts(c.machine, c.readings ?? {}, otherPoints),
   };
   for (const [name, q] of Object.entries(e.quantities)) {
     (facts.value as Record<string, number>)[name] = q.value;

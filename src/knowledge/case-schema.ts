@@ -104,6 +104,7 @@ export const READING_FIELDS = {
   speed: { dimension: 'speed', says: 'speed' },
   speedReverse: { dimension: 'speed', says: 'speed at the same set-point in the other direction' },
   noLoadArmatureCurrent: { dimension: 'current', says: 'armature current running uncoupled' },
+  uncoupledSpeed: { dimension: 'speed', says: 'speed running uncoupled, on the same supply' },
   ambientTemperature: { dimension: 'temperature', says: 'ambient or coolant temperature' },
   armatureResistanceHot: { dimension: 'resistance', says: 'armature circuit resistance measured hot' },
   shuntFieldResistanceHot: { dimension: 'resistance', says: 'shunt field resistance measured hot' },

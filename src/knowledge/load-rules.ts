@@ -8,7 +8,7 @@ import type * as z from 'zod';
 import { join } from 'node:path';
 import { QUANTITY_NAMES } from '../model/quantity-names.js';
 import { TEST_FINDINGS } from '../model/series/findings.js';
-import { FIT_FACT_FIELDS, HEALTHY_FIT_FIELDS, HYPOTHESIS_IDS } from '../model/fits/index.js';
+import { CIRCUIT_FIT_FIELDS, FIT_FACT_FIELDS, HEALTHY_FIT_FIELDS, HYPOTHESIS_IDS } from '../model/fits/index.js';
 import { READING_FIELDS } from './case-schema.js';
 import { duplicateKeyIssue, readJsonFile, validate } from './read-json.js';
 import { controlPaths, withVisibleText } from './visible-text.js';
@@ -79,7 +79,7 @@ const MACHINE_QUESTION_IDS = new Set(['connection', 'drive', 'feedback', 'coolin
 export const SWAP_FACT_PATHS = ['supply', 'armature', 'shuntField', 'seriesField', 'bothFields'] as const;
 
 /** Paths of the fact `fit`: "$.<hypothesis>.<field>" (see src/model/fits/index.ts). */
-export const FIT_FACT_PATHS = [...HYPOTHESIS_IDS.flatMap((h) => FIT_FACT_FIELDS.map((f) => `${h}.${f}`)), ...HEALTHY_FIT_FIELDS.map((f) => `healthy.${f}`)];
+export const FIT_FACT_PATHS = [...HYPOTHESIS_IDS.flatMap((h) => FIT_FACT_FIELDS.map((f) => `${h}.${f}`)), ...HEALTHY_FIT_FIELDS.map((f) => `healthy.${f}`), ...CIRCUIT_FIT_FIELDS.map((f) => `circuit.${f}`)];
 
 export interface LoadOptions {
   /** Files proved valid by the build (see rule-seal.ts): used as read, without a second pass. */
@@ -272,7 +272,7 @@ function checkCondition(c: Condition, file: string, path: string, derived: Set<s
     out.push(issue(file, `${path}.path`, `fact "${c.fact}" needs a path naming a swap: ${SWAP_FACT_PATHS.map((n) => `"$.${n}"`).join(', ')}`));
   }
   if (kind === 'fits' && !FIT_FACT_PATHS.includes(c.path?.slice(2) ?? '')) {
-    out.push(issue(file, `${path}.path`, `fact "${c.fact}" needs a path "$.<hypothesis>.<field>": hypotheses ${HYPOTHESIS_IDS.join(', ')}, healthy; fields ${FIT_FACT_FIELDS.join(', ')}`));
+    out.push(issue(file, `${path}.path`, `fact "${c.fact}" needs a path "$.<hypothesis>.<field>": hypotheses ${HYPOTHESIS_IDS.join(', ')} (fields ${FIT_FACT_FIELDS.join(', ')}), healthy (${HEALTHY_FIT_FIELDS.join(', ')}) or circuit (${CIRCUIT_FIT_FIELDS.join(', ')})`));
   }
   if (typeof c.value === 'object' && !Array.isArray(c.value)) {
     const refKind = factKind(c.value.fact, derived);

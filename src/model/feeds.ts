@@ -17,7 +17,7 @@ const PROBE_MACHINE: MachineData & { tachoVoltsPer1000Rpm: number } = {
 /** A plausible value for every reading; the one probed is left out of the "before" run. */
 const PROBE_READINGS: Required<Omit<Readings, 'insulationTestedWinding'>> = {
   armatureVoltage: 218, supplyVoltage: 226, armatureCurrent: 30, fieldVoltage: 215, fieldCurrent: 0.95, lineCurrent: 31,
-  speed: 1450, speedReverse: 1440, noLoadArmatureCurrent: 3, ambientTemperature: 25, armatureResistanceHot: 0.5,
+  speed: 1450, speedReverse: 1440, noLoadArmatureCurrent: 3, uncoupledSpeed: 1690, ambientTemperature: 25, armatureResistanceHot: 0.5,
   shuntFieldResistanceHot: 240, insulationResistance1min: 100, insulationResistance10min: 250, insulationTestTemperature: 30,
   insulationTestVoltage: 500, tachoVoltage: 86, currentLimitSetting: 60, brushLength: 20, brushLengthNew: 32,
   brushSpringPressure: 18, commutatorRunout: 0.02, fieldCurrentSetting: 1, fieldTemperature: 60, starterResistance: 0,

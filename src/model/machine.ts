@@ -109,6 +109,8 @@ export interface Readings {
   speed?: number | undefined;
   speedReverse?: number | undefined;
   noLoadArmatureCurrent?: number | undefined;
+  /** Speed running uncoupled on the same supply: with the no-load current, a second operating point. */
+  uncoupledSpeed?: number | undefined;
   ambientTemperature?: number | undefined;
   armatureResistanceHot?: number | undefined;
   shuntFieldResistanceHot?: number | undefined;

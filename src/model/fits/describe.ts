@@ -6,11 +6,11 @@
 import type { FitReport, FitReading, HypothesisFit, Residual } from './fit.js';
 import { FIT_READINGS } from './fit.js';
 
-const READING_UNITS: Record<FitReading, string> = { speed: 'rpm', fieldCurrent: 'A', armatureVoltage: 'V', supplyVoltage: 'V', armatureCurrent: 'A' };
+const READING_UNITS: Record<FitReading, string> = { speed: 'rpm', fieldCurrent: 'A', armatureVoltage: 'V', supplyVoltage: 'V', armatureCurrent: 'A', uncoupledSpeed: 'rpm' };
 const SEPARATOR_WORDS: Record<string, string> = {
   fieldCurrent: 'the field current',
   supplyVoltage: 'the voltage at the supply end',
-  noLoadSpeed: 'the speed run uncoupled (no load)',
+  uncoupledSpeed: 'the speed run uncoupled (no load)',
 };
 /** What the fault is not, when its parameter lands outside its range. */
 const NOT_THIS: Record<string, string> = {

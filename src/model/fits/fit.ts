@@ -18,8 +18,11 @@ export const FIT_READINGS = {
   armatureVoltage: { tolerance: 0.06, words: 'terminal voltage' },
   supplyVoltage: { tolerance: 0.06, words: 'supply voltage' },
   armatureCurrent: { tolerance: 0.1, words: 'armature current' },
+  uncoupledSpeed: { tolerance: 0.03, words: 'speed running uncoupled' },
 } as const;
 export type FitReading = keyof typeof FIT_READINGS;
+/** Every reading a fit takes in: those it explains, and those it takes as given. */
+export const FIT_INPUTS: readonly string[] = [...Object.keys(FIT_READINGS), 'noLoadArmatureCurrent', 'currentLimitSetting', 'fieldCurrentSetting', 'starterResistance'];
 
 /** Verdicts a rule can test (`{ "fact": "fit", "path": "$.weakField.verdict", … }`). */
 export const FIT_VERDICTS = ['best', 'explains', 'contradicted', 'implausible', 'not-needed', 'unfit'] as const;
@@ -32,8 +35,8 @@ export interface Prediction {
   speed: number;
   /** Electromagnetic torque per unit of rated (kΦr·Ia,rated). */
   torquePu: number;
-  /** Speed the same machine would run at 5 % of rated current: a check that separates hypotheses. */
-  noLoadSpeed: number;
+  /** Speed the same machine would run at uncoupled (at the no-load current read, else 5 % of rated): a second operating point. */
+  uncoupledSpeed: number;
 }
 
 export interface Residual {
@@ -96,39 +99,40 @@ export function neutralWorld(b: FitBasis, r: Readings): World {
   };
 }
 
-/** The machine equations under one world at armature current `ia`. */
-export function predict(b: FitBasis, w: World, ia: number): Prediction {
-  const terminal = w.sourceVolts - ia * w.cableOhms;
-  let field: number | undefined;
-  let fieldPu = 0;
-  if (b.shuntField) {
-    const supplied = b.healthyFieldAt(terminal) * w.fieldFactor;
-    // A regulator holds the current, so shorted turns cost ampere-turns; a voltage-fed field
-    // draws more current through fewer turns, so its ampere-turns barely change.
-    field = b.fieldRegulated ? supplied : supplied / Math.max(1e-6, 1 - w.turnsShorted);
-    fieldPu = field / b.ratedFieldAmps!;
-  }
+/** The machine equations under one world at armature current `ia` (and at the current it draws uncoupled). */
+export function predict(b: FitBasis, w: World, ia: number, noLoadIa = 0.05 * b.ratedAmps): Prediction {
   // Shorted turns sit in one coil: that pole loses its share of the turns while the others
   // carry the (higher) current in full, and saturation keeps them from making up the loss.
   const faultyPoleTurns = 1 - Math.min(1, POLES * w.turnsShorted);
-  const fluxAt = (amps: number) =>
-    w.fluxFactor *
-    (w.turnsShorted === 0
-      ? b.flux(fieldPu, amps / b.ratedAmps, w.seriesFactor)
-      : ((POLES - 1) * b.flux(fieldPu, amps / b.ratedAmps, w.seriesFactor) + b.flux(fieldPu * faultyPoleTurns, amps / b.ratedAmps, w.seriesFactor)) / POLES);
-  const speedAt = (amps: number) => {
-    const phi = fluxAt(amps);
+  /** Terminal voltage, field current and speed at one armature current: the cable drop, and a shunt field fed from the terminals, follow the current. */
+  const stateAt = (amps: number) => {
+    const terminal = w.sourceVolts - amps * w.cableOhms;
+    let field: number | undefined;
+    let fieldPu = 0;
+    if (b.shuntField) {
+      const supplied = b.healthyFieldAt(terminal) * w.fieldFactor;
+      // A regulator holds the current, so shorted turns cost ampere-turns; a voltage-fed field
+      // draws more current through fewer turns, so its ampere-turns barely change.
+      field = b.fieldRegulated ? supplied : supplied / Math.max(1e-6, 1 - w.turnsShorted);
+      fieldPu = field / b.ratedFieldAmps!;
+    }
+    const armaturePu = amps / b.ratedAmps;
+    const phi =
+      w.fluxFactor *
+      (w.turnsShorted === 0
+        ? b.flux(fieldPu, armaturePu, w.seriesFactor)
+        : ((POLES - 1) * b.flux(fieldPu, armaturePu, w.seriesFactor) + b.flux(fieldPu * faultyPoleTurns, armaturePu, w.seriesFactor)) / POLES);
     const e = terminal - amps * (b.circuitOhms + w.extraOhms) - (amps > 0 ? b.brushDrop : 0);
-    return phi > 1e-6 ? radSToRpm(e / (b.kPhiRated * phi)) : Number.POSITIVE_INFINITY;
+    return { terminal, field, phi, speed: phi > 1e-6 ? radSToRpm(e / (b.kPhiRated * phi)) : Number.POSITIVE_INFINITY };
   };
-  const phi = fluxAt(ia);
+  const loaded = stateAt(ia);
   return {
-    armatureVoltage: terminal,
+    armatureVoltage: loaded.terminal,
     supplyVoltage: w.sourceVolts,
-    fieldCurrent: field,
-    speed: speedAt(ia),
-    torquePu: (phi * ia) / b.ratedAmps,
-    noLoadSpeed: speedAt(0.05 * b.ratedAmps),
+    fieldCurrent: loaded.field,
+    speed: loaded.speed,
+    torquePu: (loaded.phi * ia) / b.ratedAmps,
+    uncoupledSpeed: stateAt(noLoadIa).speed,
   };
 }
 
@@ -137,9 +141,11 @@ function residualsOf(b: FitBasis, r: Readings, p: Prediction, speedTolerance: nu
   const add = (reading: FitReading, predicted: number, measured: number | undefined, scale: number) => {
     if (measured === undefined || !(scale > 0)) return;
     const share = Number.isFinite(predicted) ? (predicted - measured) / scale : 10;
-    out.push({ reading, predicted, measured, share, z: share / (reading === 'speed' ? speedTolerance : FIT_READINGS[reading].tolerance) });
+    out.push({ reading, predicted, measured, share, z: share / (reading === 'speed' || reading === 'uncoupledSpeed' ? speedTolerance : FIT_READINGS[reading].tolerance) });
   };
   if (r.speed !== undefined && r.speed > 0) add('speed', p.speed, r.speed, r.speed);
+  // Run uncoupled on a fixed supply, the machine shows its constants at a second point; a converter would hold its reference.
+  if (r.uncoupledSpeed !== undefined && r.uncoupledSpeed > 0 && !b.voltageFree) add('uncoupledSpeed', p.uncoupledSpeed, r.uncoupledSpeed, r.uncoupledSpeed);
   if (b.shuntField && p.fieldCurrent !== undefined) add('fieldCurrent', p.fieldCurrent, r.fieldCurrent, b.ratedFieldAmps!);
   add('armatureVoltage', p.armatureVoltage, r.armatureVoltage, b.ratedVolts);
   if (!b.voltageFree) add('supplyVoltage', p.supplyVoltage, r.supplyVoltage, b.ratedVolts);
@@ -193,14 +199,15 @@ export function fitReadings(machine: ModelMachine, r: Readings): FitReport | und
   const b = fitBasis(machine, r);
   if (!b || r.speed === undefined || !(r.speed > 0) || r.armatureCurrent === undefined || r.armatureVoltage === undefined) return undefined;
   const ia = r.armatureCurrent;
+  const noLoadIa = r.noLoadArmatureCurrent ?? 0.05 * b.ratedAmps;
   const neutral = neutralWorld(b, r);
-  const healthyPrediction = predict(b, neutral, ia);
+  const healthyPrediction = predict(b, neutral, ia, noLoadIa);
   // The current is an input to every prediction: its own reading error moves the predicted speed
   // (much on a series machine, whose flux follows it), so the speed's tolerance carries that too.
   // On a converter the terminal voltage is an input as well, with its own reading error.
   const sensitivity = (moved: number) => (Number.isFinite(moved) && healthyPrediction.speed > 0 ? Math.abs(moved - healthyPrediction.speed) / healthyPrediction.speed : 0);
-  const byCurrent = sensitivity(predict(b, neutral, ia * (1 + READING_ERROR)).speed);
-  const byVoltage = b.voltageFree ? sensitivity(predict(b, { ...neutral, sourceVolts: neutral.sourceVolts * (1 + READING_ERROR) }, ia).speed) : 0;
+  const byCurrent = sensitivity(predict(b, neutral, ia * (1 + READING_ERROR), noLoadIa).speed);
+  const byVoltage = b.voltageFree ? sensitivity(predict(b, { ...neutral, sourceVolts: neutral.sourceVolts * (1 + READING_ERROR) }, ia, noLoadIa).speed) : 0;
   // Added, not combined as squares: reading errors of one sign must not make a healthy machine a fault.
   const speedTolerance = FIT_READINGS.speed.tolerance + byCurrent + byVoltage;
   const residuals = (p: Prediction) => residualsOf(b, r, p, speedTolerance);
@@ -221,7 +228,7 @@ export function fitReadings(machine: ModelMachine, r: Readings): FitReport | und
       return { ...base, value, plausible, residuals: healthyResiduals, worstShare: worst(healthyResiduals, 'share'), worstZ: healthy.worstZ, explains: healthy.explains, verdict, contradictedBy: verdict === 'contradicted' ? worstReading(healthyResiduals) : undefined, prediction: healthyPrediction };
     }
     const [lo, hi] = h.search(b, r);
-    const at = (x: number) => predict(b, h.world!(x, neutral), ia);
+    const at = (x: number) => predict(b, h.world!(x, neutral), ia, noLoadIa);
     const value = minimise((x) => sumSquares(residuals(at(x))), lo, hi);
     const prediction = at(value);
     const rs = residuals(prediction);
@@ -261,6 +268,6 @@ function separators(b: FitBasis, r: Readings, x: HypothesisFit, y: HypothesisFit
   const differ = (a: number | undefined, c: number | undefined, scale: number, tol: number) => a !== undefined && c !== undefined && Number.isFinite(a) && Number.isFinite(c) && Math.abs(a - c) / scale > tol;
   if (r.fieldCurrent === undefined && b.shuntField && differ(px.fieldCurrent, py.fieldCurrent, b.ratedFieldAmps!, FIT_READINGS.fieldCurrent.tolerance)) out.push('fieldCurrent');
   if (r.supplyVoltage === undefined && differ(px.supplyVoltage, py.supplyVoltage, b.ratedVolts, FIT_READINGS.supplyVoltage.tolerance)) out.push('supplyVoltage');
-  if (differ(px.noLoadSpeed, py.noLoadSpeed, Math.max(px.noLoadSpeed, py.noLoadSpeed), FIT_READINGS.speed.tolerance)) out.push('noLoadSpeed');
+  if (r.uncoupledSpeed === undefined && !b.voltageFree && differ(px.uncoupledSpeed, py.uncoupledSpeed, Math.max(px.uncoupledSpeed, py.uncoupledSpeed), FIT_READINGS.speed.tolerance)) out.push('uncoupledSpeed');
   return out;
 }

@@ -206,7 +206,7 @@ const noisy = (x: number, rnd: () => number, share: number) => x * (1 + share * 
  * Fault cases of known size with ±2 % noise on every reading. The cable-drop fault is labelled
  * with its cause (low supply voltage), and its size is the drop as a share of the supply.
  */
-export function generatedFaultCases({ seed, count, noise = 0.02 }: { seed: number; count: number; noise?: number }): GeneratedCase[] {
+export function generatedFaultCases({ seed, count, noise = 0.02, uncoupled = false }: { seed: number; count: number; noise?: number; uncoupled?: boolean }): GeneratedCase[] {
   const rnd = random(seed);
   const out: GeneratedCase[] = [];
   for (let k = 0; k < count; k++) {
@@ -233,6 +233,14 @@ export function generatedFaultCases({ seed, count, noise = 0.02 }: { seed: numbe
       continue;
     }
     const readings: Readings = Object.fromEntries(Object.entries(exact).map(([name, x]) => [name, name === 'currentLimitSetting' ? x : noisy(x as number, rnd, noise)]));
+    // Run uncoupled as well (never a series machine; a converter would hold its speed reference): a second operating point.
+    // Its noise is drawn either way, so the same seed gives the same jobs with and without it.
+    const light = d.connection !== 'series' && d.drive === 'fixed-supply' ? steadyState(d, fault, { ...op, load: 0.05 }) : undefined;
+    const lightNoise = [noisy(1, rnd, noise), noisy(1, rnd, noise)] as const;
+    if (uncoupled && light?.speed !== undefined && light.armatureCurrent !== undefined && light.speed > 0 && Number.isFinite(light.speed)) {
+      readings.noLoadArmatureCurrent = light.armatureCurrent * lightNoise[0];
+      readings.uncoupledSpeed = light.speed * lightNoise[1];
+    }
     const cause = kind === 'cable-drop' ? 'low-supply-voltage' : kind;
     out.push({ label: `${d.connection}/${d.drive} ${kind} ${Number(size.toPrecision(3))}`, cause, size, job: { machine: machineOf(d), readings } });
   }

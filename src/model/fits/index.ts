@@ -9,13 +9,16 @@ import type { ModelMachine } from '../families/context.js';
 import { fitReadings, type FitVerdict } from './fit.js';
 import { describeFits } from './describe.js';
 import { HYPOTHESIS_IDS } from './hypotheses.js';
+import { circuitFacts, operatingPoints } from './points.js';
 
-export { fitReadings } from './fit.js';
+export { fitReadings, FIT_INPUTS } from './fit.js';
 export { HYPOTHESIS_IDS } from './hypotheses.js';
 
 /** The fields of each hypothesis a rule can read, and the healthy machine's. */
 export const FIT_FACT_FIELDS = ['verdict', 'value', 'worstShare', 'plausible', 'explains'] as const;
 export const HEALTHY_FIT_FIELDS = ['explains', 'worstShare'] as const;
+/** The fields of the circuit fit over the job's operating points (`$.circuit.resistanceRatio`). */
+export const CIRCUIT_FIT_FIELDS = ['points', 'resistance', 'resistanceRatio', 'fluxRatio', 'worstResidualShare'] as const;
 
 export interface HypothesisFacts {
   verdict: FitVerdict;
@@ -26,19 +29,28 @@ export interface HypothesisFacts {
 }
 
 export interface FitFacts {
-  fit: Record<string, HypothesisFacts> & { healthy?: { explains: boolean; worstShare: number } };
+  fit: Record<string, HypothesisFacts> & {
+    healthy?: { explains: boolean; worstShare: number };
+    circuit?: { points: number; resistance: number; resistanceRatio: number; fluxRatio: number; worstResidualShare: number };
+  };
   fitSays: Record<string, string>;
 }
 
 const finite = (x: number) => (Number.isFinite(x) ? { value: x } : {});
 
-/** Facts for a job; every hypothesis is present ("unfit" where the readings do not allow a fit). */
-export function fitFacts(machine: ModelMachine, readings: Readings): FitFacts {
+/**
+ * Facts for a job; every hypothesis is present ("unfit" where the readings do not allow a fit).
+ * `fromChecks`: readings worked checks took at other operating points, for the circuit fit.
+ */
+export function fitFacts(machine: ModelMachine, readings: Readings, fromChecks: readonly { label: string; readings: Readings }[] = []): FitFacts {
   const report = fitReadings(machine, readings);
   const fit: FitFacts['fit'] = {};
+  const circuit = circuitFacts(machine, readings, operatingPoints(readings, fromChecks));
+  const circuitSays = circuit ? { circuit: circuit.says } : {};
+  if (circuit) fit.circuit = { points: circuit.points, resistance: circuit.resistance, resistanceRatio: circuit.resistanceRatio, fluxRatio: circuit.fluxRatio, worstResidualShare: circuit.worstResidualShare };
   if (!report) {
     for (const id of HYPOTHESIS_IDS) fit[id] = { verdict: 'unfit', plausible: false, explains: false };
-    return { fit, fitSays: {} };
+    return { fit, fitSays: circuitSays };
   }
   for (const h of report.hypotheses) {
     fit[h.id] = {
@@ -50,5 +62,5 @@ export function fitFacts(machine: ModelMachine, readings: Readings): FitFacts {
     };
   }
   fit.healthy = { explains: report.healthy.explains, worstShare: Math.max(0, ...report.healthy.residuals.map((r) => Math.abs(r.share))) };
-  return { fit, fitSays: describeFits(report) };
+  return { fit, fitSays: { ...describeFits(report), ...circuitSays } };
 }

@@ -43,7 +43,7 @@ export interface CircuitFit {
  * @example fitArmatureCircuit([{ volts: 150, amps: 50, rpm: 1000 }, { volts: 150, amps: 4, rpm: 1460 }], 0)
  *   // { resistance: 1, machineConstant: 0.955, … }
  */
-export function fitArmatureCircuit(points: OperatingPoint[], brushDropV: number, fluxShape: (amps: number) => number = () => 1): CircuitFit | undefined {
+export function fitArmatureCircuit(points: readonly OperatingPoint[], brushDropV: number, fluxShape: (amps: number) => number = () => 1): CircuitFit | undefined {
   if (points.length < 2) return undefined;
   // Normal equations of y = a·x1 + b·x2 with x1 = s·ω, x2 = Ia.
   let s11 = 0;
