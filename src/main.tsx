@@ -154,6 +154,7 @@ async function main(argv: string[]): Promise<number> {
           causes: d.causes.map(({ id, title, score, evidence }) => ({ id, title, score, evidence: evidence.map(({ rule, says }) => ({ rule, says })) })),
           checks: d.checks.map(({ id, title, state, causes, minutes, result }) => ({ id, title, state, causes, minutes, ...(result ? { result } : {}) })),
           withheld: d.withheld.map(({ id, title, because, instead }) => ({ id, title, because, instead })),
+          tellApart: d.tellApart.map((s) => ({ reading: s.reading, causes: s.between.map((x) => x.causes) })),
           isolation: d.isolation,
           quantities: d.expectation.quantities,
           analyses: d.analyses,

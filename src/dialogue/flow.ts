@@ -72,7 +72,8 @@ export function nextStep(flow: Flow, p: Progress): Next {
     // After a fault trip or a runaway warning nothing is asked that means running it again.
     !(safetyFirst && (q.source?.needsRunning || q.state === 'live-test')) &&
     !(p.supervisedOnly && q.state !== 'observe') &&
-    (q.target.section !== 'readings' || readingIsUsable(p.job, q.target.name));
+    // A reading is worth asking when the model can judge it, or when the fits wait on it to tell tied causes apart.
+    (q.target.section !== 'readings' || readingIsUsable(p.job, q.target.name) || awaitedByFits(p.job, d, q.target.name));
   // Context before detail: a question waits for the ones it follows; asked first, those come first.
   const waiting = (q: DialogueQuestion) => (q.source?.askAfter ?? []).filter((id) => !answered.has(id));
   const ready = (q: DialogueQuestion) => available(q) && waiting(q).length === 0;
@@ -99,6 +100,11 @@ function drivesMayHaveFeedback(answers: readonly Answer[]): boolean {
 
 function hasWoundShuntField(answers: readonly Answer[]): boolean {
   return !['series', 'permanent-magnet'].includes(answerOf(answers, 'connection') ?? '');
+}
+
+/** A reading not yet taken that would tell tied fitted hypotheses apart. */
+function awaitedByFits(job: CaseFile | undefined, d: Diagnosis, reading: string): boolean {
+  return (job?.readings as Record<string, unknown> | undefined)?.[reading] === undefined && d.tellApart.some((s) => s.reading === reading);
 }
 
 /** A reading is worth asking for only if the model can set it against something. */

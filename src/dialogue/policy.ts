@@ -18,6 +18,7 @@ import { quantitiesFedBy } from '../model/feeds.js';
 import type { DialogueQuestion } from './questions.js';
 import { compareIds } from '../engine/compare-ids.js';
 import { SERIES_OUTCOMES } from '../model/series/findings.js';
+import { outcomeLikelihoods } from '../engine/fit-ties.js';
 
 export interface CompiledQuestion {
   question: DialogueQuestion;
@@ -172,11 +173,26 @@ const ISOLATION_PREMIUM = 1.5;
 /** Below this many bits no question is worth asking. */
 export const MIN_GAIN_BITS = 0.03;
 
+/**
+ * A reading that would tell tied hypotheses apart, as a question of its own: each answer is "as
+ * one of them predicts", likely under that one's causes (src/engine/fit-ties.ts).
+ */
+function separatingQuestion(cq: CompiledQuestion, d: Diagnosis): CompiledQuestion | undefined {
+  const t = cq.question.target;
+  const s = t.section === 'readings' ? (d.tellApart ?? []).find((x) => x.reading === t.name) : undefined;
+  if (!s) return undefined;
+  return { question: cq.question, likelihood: outcomeLikelihoods(s, cq.likelihood.keys()), answers: s.between.map((h) => `as ${h.hypothesis} predicts`) };
+}
+
 export function rankQuestions(policy: Policy, d: Diagnosis, available: (q: DialogueQuestion) => boolean): Choice[] {
   const b = belief(d, policy.causeIds);
   return policy.questions
     .filter((cq) => available(cq.question))
-    .map((cq) => ({ question: cq.question, gain: chanceOfAnswer(cq.question, d.facts['present-state']) * informationGain(cq, b) }))
+    .map((cq) => {
+      const split = separatingQuestion(cq, d);
+      const gain = Math.max(informationGain(cq, b), split ? informationGain(split, b) : 0);
+      return { question: cq.question, gain: chanceOfAnswer(cq.question, d.facts['present-state']) * gain };
+    })
     .sort((x, y) => y.gain - x.gain || compareIds(x.question.id, y.question.id));
 }
 

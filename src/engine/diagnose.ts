@@ -12,10 +12,11 @@ import { describeTree, fillTemplate } from './explain.js';
 import { jobFacts, type Facts } from './facts.js';
 import { factsRead } from '../knowledge/load-rules.js';
 import { orderChecks } from './order-checks.js';
-import { checkValue, confirmedBy, resultEvidence } from './loop.js';
+import { checkValue, confirmedBy, resultEvidence, separationValue } from './loop.js';
 import { runToFixpoint } from './run-rules.js';
 import { compareIds } from './compare-ids.js';
 import { analyseTests, type Analyses } from './series-analyses.js';
+import { outcomeLikelihoods, separations, type Separation } from './fit-ties.js';
 
 export interface Evidence {
   rule: string;
@@ -76,6 +77,8 @@ export interface Diagnosis {
   ruledOut: { id: string; title: string; because: string[] }[];
   checks: CheckResult[];
   withheld: WithheldCheck[];
+  /** Readings not yet taken that would tell apart two causes the readings so far explain equally well. */
+  tellApart: Separation[];
   isolation: { beforeCheck: string | null; steps: string[] };
   expectation: Expectation;
   /** What the test series show (bar-to-bar, pole drop, runout, insulation curve). */
@@ -181,9 +184,16 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
   );
   // The causes in play: those with a positive score. Their checks compete on value per minute.
   const inPlay = new Map(causes.map((c) => [c.id, scores.get(c.id)!]));
+  // A check that takes a reading the fits are waiting on is worth what telling the tied causes apart is worth.
+  const tellApart = confirmed ? [] : separations(facts, base, new Set(inPlay.keys()));
+  const separating = (check: Check) => {
+    const s = tellApart.filter((x) => check.takes?.readings?.includes(x.reading as never));
+    // The check reads each such reading: its value is that of the one that separates most.
+    return s.map((x) => outcomeLikelihoods(x, inPlay.keys()));
+  };
   const valueOf = new Map<string, number>();
   const value = (check: Check) => {
-    if (!valueOf.has(check.id)) valueOf.set(check.id, checkValue(check, shows.get(check.id) ?? [], inPlay));
+    if (!valueOf.has(check.id)) valueOf.set(check.id, Math.max(checkValue(check, shows.get(check.id) ?? [], inPlay), ...separating(check).map((l) => separationValue(check, l, inPlay))));
     return valueOf.get(check.id)!;
   };
   const lastWorked = worked.at(-1);
@@ -233,6 +243,7 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
     ruledOut,
     checks: [...workedResults, ...remaining],
     withheld: safe.withheld,
+    tellApart,
     isolation: {
       beforeCheck: firstIsolated?.id ?? null,
       steps: firstIsolated ? isolationSteps(base.safety.isolation, job.machine.drive ?? 'unknown', job.machine.connection) : [],

@@ -155,3 +155,25 @@ export function checkValue(check: Check, shown: readonly string[], scores: Reado
   const settles = confirmedBy(inShown, scoreAfter) !== undefined ? abnormal.chance : 0;
   return (settles + INFORMATION_WEIGHT * removed) / check.minutes;
 }
+
+/**
+ * The value per minute of a check that takes a reading tied hypotheses predict differently: it
+ * settles nothing by itself, but its reading comes out as one of them predicts, which removes
+ * the uncertainty between their causes. Half the share of the uncertainty it is expected to
+ * remove, per minute, as for any other check. `likelihoods`: per cause, the chance of each outcome.
+ */
+export function separationValue(check: Check, likelihoods: ReadonlyMap<string, readonly number[]> | undefined, scores: ReadonlyMap<string, number>): number {
+  if (!likelihoods) return 0;
+  const p = new Map([...beliefs(scores)].map(([c, x]) => [c, x * (1 - UNLISTED_SHARE)] as const));
+  p.set(UNLISTED, UNLISTED_SHARE);
+  const outcomes = [...likelihoods.values()][0]?.length ?? 0;
+  const h = entropy(p.values());
+  let after = 0;
+  for (let k = 0; k < outcomes; k++) {
+    const joint = [...p].map(([c, x]) => x * (likelihoods.get(c)?.[k] ?? 1 / outcomes));
+    const total = joint.reduce((t, x) => t + x, 0);
+    if (total > 0) after += total * entropy(joint.map((x) => x / total));
+  }
+  const removed = h > 0 ? Math.max(0, (h - after) / h) : 0;
+  return (INFORMATION_WEIGHT * removed) / check.minutes;
+}

@@ -2,6 +2,7 @@
 import type { Diagnosis } from '../engine/diagnose.js';
 import { formatExpectation } from './format-expect.js';
 import { evidenceLines } from '../report/evidence-lines.js';
+import { READING_FIELDS } from '../knowledge/case-schema.js';
 
 const RESULT_WORDS = { normal: 'normal', abnormal: 'ABNORMAL', inconclusive: 'inconclusive' } as const;
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'LIVE TEST (qualified person)', isolated: 'isolated' } as const;
@@ -12,6 +13,18 @@ export function warningLine(w: Diagnosis['warnings'][number], color = false): st
   if (!color) return text;
   // Danger: bold white on red; caution: bold yellow. Red is kept for danger alone.
   return w.severity === 'danger' ? `\x1b[1;97;41m${text}\x1b[0m` : `\x1b[1;33m${text}\x1b[0m`;
+}
+
+/** "The readings so far fit X and Y equally well; the field current would tell them apart." */
+function tellApartLines(d: Diagnosis, title: ReadonlyMap<string, string>): string {
+  const names = (ids: string[]) => ids.map((id) => title.get(id) ?? id).join(' or ');
+  const byPair = new Map<string, string[]>();
+  for (const s of d.tellApart) {
+    const pair = s.between.map((h) => names(h.causes)).join('; ');
+    const words = Object.hasOwn(READING_FIELDS, s.reading) ? READING_FIELDS[s.reading as keyof typeof READING_FIELDS].says : s.reading;
+    byPair.set(pair, [...(byPair.get(pair) ?? []), words]);
+  }
+  return 'The readings so far fit these equally well:\n' + [...byPair].map(([pair, readings]) => `  - ${pair}: the ${readings.join(' or the ')} would tell them apart.`).join('\n');
 }
 
 export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?: number; chart?: string | undefined; color?: boolean } = {}): string {
@@ -27,9 +40,10 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
           .join('\n'),
     );
   }
+  const title = new Map(d.causes.map((c) => [c.id, c.title]));
+  if (d.tellApart.length) parts.push(tellApartLines(d, title));
   if (opts.readings !== false) parts.push('Readings against a healthy machine:\n' + formatExpectation(d.expectation, opts.width, { computed: false }));
   if (opts.chart) parts.push(opts.chart);
-  const title = new Map(d.causes.map((c) => [c.id, c.title]));
   const worked = d.checks.filter((c) => c.result);
   if (worked.length) {
     parts.push(

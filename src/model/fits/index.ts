@@ -34,6 +34,8 @@ export interface FitFacts {
     circuit?: { points: number; resistance: number; resistanceRatio: number; fluxRatio: number; worstResidualShare: number };
   };
   fitSays: Record<string, string>;
+  /** Hypotheses tied as best, with the readings not yet taken that would tell each pair apart. */
+  fitTies: { a: string; b: string; separatedBy: string[] }[];
 }
 
 const finite = (x: number) => (Number.isFinite(x) ? { value: x } : {});
@@ -50,7 +52,7 @@ export function fitFacts(machine: ModelMachine, readings: Readings, fromChecks: 
   if (circuit) fit.circuit = { points: circuit.points, resistance: circuit.resistance, resistanceRatio: circuit.resistanceRatio, fluxRatio: circuit.fluxRatio, worstResidualShare: circuit.worstResidualShare };
   if (!report) {
     for (const id of HYPOTHESIS_IDS) fit[id] = { verdict: 'unfit', plausible: false, explains: false };
-    return { fit, fitSays: circuitSays };
+    return { fit, fitSays: circuitSays, fitTies: [] };
   }
   for (const h of report.hypotheses) {
     fit[h.id] = {
@@ -62,5 +64,5 @@ export function fitFacts(machine: ModelMachine, readings: Readings, fromChecks: 
     };
   }
   fit.healthy = { explains: report.healthy.explains, worstShare: Math.max(0, ...report.healthy.residuals.map((r) => Math.abs(r.share))) };
-  return { fit, fitSays: { ...describeFits(report), ...circuitSays } };
+  return { fit, fitSays: { ...describeFits(report), ...circuitSays }, fitTies: report.ties };
 }
