@@ -11,7 +11,7 @@ describe('dctriage diagnose', () => {
     const r = runCli(['diagnose', demo, '--json']);
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
-    expect(Object.keys(j)).toEqual(['format', 'status', 'confirmed', 'next', 'warnings', 'causes', 'checks', 'withheld', 'isolation', 'quantities', 'analyses']);
+    expect(Object.keys(j)).toEqual(['format', 'status', 'confirmed', 'next', 'warnings', 'causes', 'checks', 'withheld', 'tellApart', 'isolation', 'quantities', 'analyses']);
     expect(j.format).toBe('dctriage-diagnosis/1');
     expect(j.causes[0]).toMatchObject({ id: 'field-weak', title: 'Field weak' });
     expect(j.causes[0].evidence).toContainEqual({ rule: expect.any(String), says: expect.stringContaining('field current') });
