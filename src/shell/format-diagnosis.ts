@@ -15,16 +15,17 @@ export function warningLine(w: Diagnosis['warnings'][number], color = false): st
   return w.severity === 'danger' ? `\x1b[1;97;41m${text}\x1b[0m` : `\x1b[1;33m${text}\x1b[0m`;
 }
 
-/** "The readings so far fit X and Y equally well; the field current would tell them apart." */
+/** "The readings so far fit these equally well: (a) X, (b) Y or Z. The field current would tell them apart." */
 function tellApartLines(d: Diagnosis, title: ReadonlyMap<string, string>): string {
-  const names = (ids: string[]) => ids.map((id) => title.get(id) ?? id).join(' or ');
-  const byPair = new Map<string, string[]>();
+  const group = (ids: string[]) => ids.map((id) => title.get(id) ?? id).join(', or ');
+  const byGroups = new Map<string, string[]>();
   for (const s of d.tellApart) {
-    const pair = s.between.map((h) => names(h.causes)).join('; ');
+    const groups = s.between.map((h) => group(h.causes)).sort();
+    const key = groups.map((g, k) => `(${String.fromCharCode(97 + k)}) ${g}`).join('; ');
     const words = Object.hasOwn(READING_FIELDS, s.reading) ? READING_FIELDS[s.reading as keyof typeof READING_FIELDS].says : s.reading;
-    byPair.set(pair, [...(byPair.get(pair) ?? []), words]);
+    byGroups.set(key, [...(byGroups.get(key) ?? []), words]);
   }
-  return 'The readings so far fit these equally well:\n' + [...byPair].map(([pair, readings]) => `  - ${pair}: the ${readings.join(' or the ')} would tell them apart.`).join('\n');
+  return [...byGroups].map(([groups, readings]) => `The readings so far fit these equally well: ${groups}. The ${readings.join(', or the ')} would tell them apart.`).join('\n');
 }
 
 export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?: number; chart?: string | undefined; color?: boolean } = {}): string {

@@ -6,7 +6,7 @@
  * field current not read.
  */
 import { describe, expect, it } from 'vitest';
-import { diagnose, checksShow } from '../../src/engine/diagnose.js';
+import { diagnose } from '../../src/engine/diagnose.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
 import { checkValue, separationValue } from '../../src/engine/loop.js';
 import { hypothesisCauses, outcomeLikelihoods } from '../../src/engine/fit-ties.js';
@@ -51,14 +51,21 @@ describe('tied fits feed the next question and the next check', () => {
     expect(ranked[0]!.gain).toBeGreaterThan(without[0]!.gain);
   });
 
-  it('a check that takes the field current is worth more for telling them apart than for what it shows alone', async () => {
+  it('a check that takes the field current is worth something for telling them apart, even with none of the tied causes listed for it', async () => {
     const d = await diagnose(job, base, engine);
     const check = base.checks.find((c) => c.id === 'live-field-current')!;
     const inPlay = new Map(d.causes.map((c) => [c.id, c.score]));
     const split = d.tellApart.find((s) => s.reading === 'fieldCurrent')!;
-    const plain = checkValue(check, checksShow(base).get(check.id) ?? [], inPlay);
-    const separating = separationValue(check, outcomeLikelihoods(split, inPlay.keys()), inPlay);
-    expect(separating).toBeGreaterThan(plain);
+    expect(checkValue(check, [], inPlay)).toBe(0);
+    expect(separationValue(check, outcomeLikelihoods(split, inPlay.keys()), inPlay)).toBeGreaterThan(0);
+  });
+
+  it('values the separating reading more the closer the tie', () => {
+    const check = base.checks.find((c) => c.id === 'live-field-current')!;
+    const split = { reading: 'fieldCurrent', between: [{ hypothesis: 'strongField', causes: ['field-overvoltage'] }, { hypothesis: 'extraResistance', causes: ['armature-circuit-high-resistance'] }] };
+    const close = new Map([['field-overvoltage', 0.85], ['armature-circuit-high-resistance', 0.85], ['overload', 0.2]]);
+    const apart = new Map([['field-overvoltage', 0.2], ['armature-circuit-high-resistance', 0.85], ['overload', 0.2]]);
+    expect(separationValue(check, outcomeLikelihoods(split, close.keys()), close)).toBeGreaterThan(separationValue(check, outcomeLikelihoods(split, apart.keys()), apart));
   });
 
   it('with the field current read the tie is gone and the resistance fault leads', async () => {

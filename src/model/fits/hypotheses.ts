@@ -81,7 +81,8 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     unit: '1',
     healthy: () => 0,
     search: () => [-0.3, 0.85],
-    plausible: (v) => v >= 0.05 && v <= 0.7,
+    // One coil of four holds a quarter of the turns: more than that is not shorted turns in a coil.
+    plausible: (v) => v >= 0.05 && v <= 0.25,
     applies: fieldWound,
     world: (v, w) => ({ ...w, turnsShorted: v }),
   },
