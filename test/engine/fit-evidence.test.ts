@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { diagnose } from '../../src/engine/diagnose.js';
 import { buildEngine } from '../../src/engine/run-rules.js';
 import { loadCaseFile } from '../../src/knowledge/load-case.js';
-import { generatedFaultCases } from '../../src/model/fits/generate.js';
+import { DESIGNS, generatedFaultCases, machineOf, random, steadyState } from '../../src/model/fits/generate.js';
 import { builtInRules } from '../support/rules.js';
 import { computeExpectations } from '../../src/model/expected.js';
 import { typicalEfficiency } from '../../src/model/families/rated-point.js';
@@ -55,5 +55,20 @@ describe('fitted hypotheses as evidence', () => {
     expect(e.quantities.armatureCircuitResistance?.value).toBeCloseTo((0.5 * 5456 * (1 - typicalEfficiency(5456))) / 576, 3);
     expect(e.quantities.armatureCircuitResistance?.basis).toBe('estimated');
     expect(e.assumptions.join(' ')).toMatch(/no resistance or output on the plate, so the efficiency is taken as 84 %/);
+  });
+
+  it('never makes a confident fault of a healthy machine with ±2 % on its readings: with and without the uncoupled point, with and without its resistances', async () => {
+    const rnd = random(2026);
+    for (let i = 0; i < 120; i++) {
+      const design = DESIGNS[i % DESIGNS.length]!;
+      const exact = steadyState(design, { cause: null, size: 0 }, { load: 0.5 + 0.5 * rnd(), speedRef: 0.8 })!;
+      const light = design.connection !== 'series' && design.drive === 'fixed-supply' ? steadyState(design, { cause: null, size: 0 }, { load: 0.05, speedRef: 0.8 }) : undefined;
+      const noisy = (x: number) => x * (1 + 0.02 * (2 * rnd() - 1));
+      const readings: Record<string, number> = Object.fromEntries(Object.entries(exact).map(([k, x]) => [k, noisy(x as number)]));
+      if (light && i % 2) Object.assign(readings, { noLoadArmatureCurrent: noisy(light.armatureCurrent!), uncoupledSpeed: noisy(light.speed!) });
+      const machine = { ...machineOf(design), magnetization: undefined, ...(i % 4 === 3 ? { resistances: undefined } : {}) };
+      const d = await diagnose({ machine, readings } as never, base, engine);
+      expect(d.causes[0]?.score ?? 0, `${design.connection}/${design.drive}: ${d.causes[0]?.id}`).toBeLessThan(0.5);
+    }
   });
 });
