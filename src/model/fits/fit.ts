@@ -195,8 +195,10 @@ export function minimise(f: (x: number) => number, lo: number, hi: number): numb
  * @example fitReadings(machine, { armatureVoltage: 229, armatureCurrent: 60, fieldCurrent: 1.11, speed: 1070 })
  *   ?.hypotheses.find((h) => h.id === 'extraResistance') // { value: 0.3, verdict: 'best', … }
  */
-export function fitReadings(machine: ModelMachine, r: Readings): FitReport | undefined {
-  const b = fitBasis(machine, r);
+export function fitReadings(machine: ModelMachine, given: Readings): FitReport | undefined {
+  const b = fitBasis(machine, given);
+  // A supply (line) current read instead of the armature's: the operating point has taken the field's share out.
+  const r = given.armatureCurrent === undefined && b?.ctx.derived.ia !== undefined ? { ...given, armatureCurrent: b.ctx.derived.ia } : given;
   if (!b || r.speed === undefined || !(r.speed > 0) || r.armatureCurrent === undefined || r.armatureVoltage === undefined) return undefined;
   const ia = r.armatureCurrent;
   const noLoadIa = r.noLoadArmatureCurrent ?? 0.05 * b.ratedAmps;

@@ -7,7 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { fitArmatureCircuit } from '../../../src/model/fits/measured-constants.js';
 import { circuitFacts, operatingPoints } from '../../../src/model/fits/points.js';
-import { fitFacts } from '../../../src/model/fits/index.js';
+import { fitFacts, fitReadings } from '../../../src/model/fits/index.js';
 import { generatedFaultCases } from '../../../src/model/fits/generate.js';
 import { diagnose } from '../../../src/engine/diagnose.js';
 import { buildEngine } from '../../../src/engine/run-rules.js';
@@ -66,6 +66,15 @@ describe("the job's own operating points", () => {
     expect(c.resistanceRatio).toBeCloseTo(3, 6);
     expect(c.says).toBe('from 2 operating points (running, uncoupled) the armature circuit measures 0.9 Ω, 3 × the 0.3 Ω it should have, with kΦ at 100 % of healthy');
     expect(fitFacts(machine, readings).fit.circuit?.resistanceRatio).toBeCloseTo(c.resistanceRatio, 9);
+  });
+
+  it('takes a supply (line) current read instead of the armature current, less the shunt field it feeds', () => {
+    const readings = { armatureVoltage: 220, speed: speed(40, 0.6), fieldCurrent: 1 };
+    const byLine = fitReadings(machine, { ...readings, lineCurrent: 41 })!;
+    const byArmature = fitReadings(machine, { ...readings, armatureCurrent: 40 })!;
+    const extra = (r: typeof byLine) => r.hypotheses.find((h) => h.id === 'extraResistance')!;
+    expect(extra(byLine).value).toBeCloseTo(extra(byArmature).value, 9);
+    expect(extra(byLine).value).toBeCloseTo(0.6, 3);
   });
 
   it('needs two points far enough apart in current, and a fixed supply', () => {
