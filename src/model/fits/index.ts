@@ -15,7 +15,7 @@ export { fitReadings, FIT_INPUTS } from './fit.js';
 export { HYPOTHESIS_IDS } from './hypotheses.js';
 
 /** The fields of each hypothesis a rule can read, and the healthy machine's. */
-export const FIT_FACT_FIELDS = ['verdict', 'value', 'worstShare', 'plausible', 'explains'] as const;
+export const FIT_FACT_FIELDS = ['verdict', 'value', 'worstShare', 'plausible', 'explains', 'contradictedBy'] as const;
 export const HEALTHY_FIT_FIELDS = ['explains', 'worstShare'] as const;
 /** The fields of the circuit fit over the job's operating points (`$.circuit.resistanceRatio`). */
 export const CIRCUIT_FIT_FIELDS = ['points', 'resistance', 'resistanceRatio', 'fluxRatio', 'worstResidualShare'] as const;
@@ -26,6 +26,8 @@ export interface HypothesisFacts {
   worstShare?: number;
   plausible: boolean;
   explains: boolean;
+  /** The reading that disagrees most, when the verdict is contradicted (`speed`, `fieldCurrent`, …). */
+  contradictedBy?: string;
 }
 
 export interface FitFacts {
@@ -61,6 +63,7 @@ export function fitFacts(machine: ModelMachine, readings: Readings, fromChecks: 
       ...(Number.isFinite(h.worstShare) ? { worstShare: h.worstShare } : {}),
       plausible: h.plausible,
       explains: h.explains,
+      ...(h.contradictedBy ? { contradictedBy: h.contradictedBy } : {}),
     };
   }
   fit.healthy = { explains: report.healthy.explains, worstShare: Math.max(0, ...report.healthy.residuals.map((r) => Math.abs(r.share))) };

@@ -182,6 +182,8 @@ describe('each hypothesis on a recorded case, in the words a fitter reads', () =
     const f = says('2026-07-07-borehole-4-cable-drop.json');
     expect(f.fitSays.cableDrop).toBe('0.727 Ω in the supply cable (a drop of 31.2 V) explains the speed, field current, terminal voltage and supply voltage within 1 %');
     expect(f.fit.lowSupply!.verdict).toBe('contradicted');
+    // The supply-end voltage was read at its rating: a low supply cannot be what drops the terminals.
+    expect(f.fit.lowSupply!.contradictedBy).toBe('supplyVoltage');
   });
 
   it('finds a current held at a low limit on a converter, and a supply above rating', () => {
