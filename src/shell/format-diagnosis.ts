@@ -7,6 +7,11 @@ import { READING_FIELDS } from '../knowledge/case-schema.js';
 const RESULT_WORDS = { normal: 'normal', abnormal: 'ABNORMAL', inconclusive: 'inconclusive' } as const;
 const STATE_WORDS = { observe: 'observe (running, no contact)', 'live-test': 'LIVE TEST (qualified person)', isolated: 'isolated' } as const;
 
+/** What a check needs of the machine and the person, in the words every list of checks uses. */
+export function checkStateWords(c: Pick<Diagnosis['checks'][number], 'state' | 'running'>): string {
+  return c.state === 'observe' && !c.running ? 'look (no contact, machine need not run)' : STATE_WORDS[c.state];
+}
+
 /** A warning by its severity: danger and caution read apart without colour too (the prefix), and stand out with it. */
 export function warningLine(w: Diagnosis['warnings'][number], color = false): string {
   const text = w.severity === 'danger' ? `!! ${w.says}` : `!  CAUTION — ${w.says}`;
@@ -66,7 +71,7 @@ export function formatDiagnosis(d: Diagnosis, opts: { readings?: boolean; width?
         lines.push('   Before the next check, isolate:');
         d.isolation.steps.forEach((s, i) => lines.push(`     ${String.fromCharCode(97 + i)}. ${s}`));
       }
-      lines.push(`${String(k + 1).padStart(2)}. ${c.title} [${c.state === 'observe' && !c.running ? 'look (no contact, machine need not run)' : STATE_WORDS[c.state]}, ~${c.minutes} min] — for: ${c.causes.map((id) => title.get(id) ?? id).join('; ')}`);
+      lines.push(`${String(k + 1).padStart(2)}. ${c.title} [${checkStateWords(c)}, ~${c.minutes} min] — for: ${c.causes.map((id) => title.get(id) ?? id).join('; ')}`);
       lines.push(`      ${c.how}`);
       if (c.insteadOf) lines.push(`      (offered instead of "${d.withheld.find((w) => w.id === c.insteadOf)?.title ?? c.insteadOf}", which is not safe for this job)`);
       const hazards = c.hazardsSay.map((h) => h.split(':')[0]!.trim());

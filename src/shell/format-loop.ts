@@ -1,7 +1,6 @@
 /** The troubleshooting loop in words: what a check's result changed, the next check, or what was found. */
 import type { Diagnosis } from '../engine/diagnose.js';
-
-const STATE_WORDS = { observe: 'look, machine running', 'live-test': 'LIVE TEST: qualified person', isolated: 'isolated' } as const;
+import { checkStateWords } from './format-diagnosis.js';
 
 /** Causes that rose or fell by at least this much are named. */
 const CHANGE_SHOWN = 0.05;
@@ -45,7 +44,7 @@ export function formatNext(d: Diagnosis): string {
   }
   const n = d.checks.findIndex((c) => c.id === d.next);
   const c = d.checks[n]!;
-  const lines = [`Next: check ${n + 1}, ${c.title} [${STATE_WORDS[c.state]}, ~${c.minutes} min]. ${c.how}`];
+  const lines = [`Next: check ${n + 1}, ${c.title} [${checkStateWords(c)}, ~${c.minutes} min]. ${c.how}`];
   if (d.isolation.beforeCheck === c.id) lines.push('Isolate first:', ...d.isolation.steps.map((s, k) => `  ${k + 1}. ${s}`));
   lines.push(`Type start ${n + 1} when you begin it, done ${n + 1} when it is finished.`);
   return lines.join('\n');
