@@ -94,6 +94,7 @@ export function steadyState(d: Design, fault: Fault, op: Operating): Readings | 
   const seriesFactor = f === 'series-field-shorted' ? fault.size : f === 'differential-compound' ? -1 : 1;
   const shorted = f === 'field-shorted-turns' ? fault.size : 0;
   const fieldScale = f === 'field-weak' || f === 'field-overvoltage' ? fault.size : 1;
+  const magnets = f === 'pm-magnets-weakened' ? fault.size : 1;
 
   const fieldAt = (terminal: number) => {
     if (!shunt) return { amps: undefined, pu: 0 };
@@ -105,7 +106,7 @@ export function steadyState(d: Design, fault: Fault, op: Operating): Readings | 
   const phiOf = (fieldPu: number, ia: number) => {
     const iaPu = (ia / d.amps) * seriesFactor;
     const mmf = (x: number) => (!shunt ? iaPu : !seriesWound ? x : x * (1 - sense * COMPOUND_SERIES_SHARE) + sense * COMPOUND_SERIES_SHARE * iaPu);
-    if (!shunt && !seriesWound) return 1;
+    if (!shunt && !seriesWound) return magnets;
     if (shorted === 0) return fluxPerUnit(undefined, mmf(fieldPu));
     const faulty = 1 - Math.min(1, POLES * shorted);
     return ((POLES - 1) * fluxPerUnit(undefined, mmf(fieldPu)) + fluxPerUnit(undefined, mmf(fieldPu * faulty))) / POLES;
@@ -183,6 +184,7 @@ function faultsFor(d: Design): [string, number, number][] {
   if (d.connection === 'series') out.push(['series-field-shorted', 0.4, 0.75], ['series-motor-unloaded', 0.06, 0.15]);
   if (d.connection === 'compound-cumulative') out.push(['series-field-shorted', 0, 0.3], ['differential-compound', 0, 0]);
   if (!fixed) out.push(['current-limit-low', 0.5, 0.8]);
+  if (d.connection === 'permanent-magnet') out.push(['pm-magnets-weakened', 0.6, 0.9]);
   return out;
 }
 

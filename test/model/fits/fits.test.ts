@@ -60,6 +60,7 @@ const FIT_OF: Record<string, { hypothesis: string; value: (size: number, d: Desi
   'low-supply-voltage': { hypothesis: 'lowSupply', value: (s, d) => s * d.volts },
   'armature-overvoltage': { hypothesis: 'highSupply', value: (s, d) => s * d.volts },
   'series-field-shorted': { hypothesis: 'seriesFieldShorted', value: (s) => s },
+  'pm-magnets-weakened': { hypothesis: 'weakMagnets', value: (s) => s },
 };
 
 const SIZES: Record<string, [number, number]> = {
@@ -70,6 +71,7 @@ const SIZES: Record<string, [number, number]> = {
   'low-supply-voltage': [0.72, 0.9],
   'armature-overvoltage': [1.1, 1.3],
   'series-field-shorted': [0.4, 0.75],
+  'pm-magnets-weakened': [0.6, 0.9],
 };
 
 function applies(cause: string, d: Design): boolean {
@@ -86,6 +88,8 @@ function applies(cause: string, d: Design): boolean {
       return fixed;
     case 'series-field-shorted':
       return d.connection === 'series';
+    case 'pm-magnets-weakened':
+      return d.connection === 'permanent-magnet';
     default:
       return true;
   }
