@@ -26,10 +26,11 @@ export function operatingPoints(readings: Readings, fromChecks: readonly { label
     if (out.some((p) => p.volts === volts && p.amps === amps && p.rpm === rpm)) return;
     out.push({ label, volts, amps, rpm });
   };
+  // The points checks read go first, under their own names; the latest readings are one of them when checks were worked.
+  for (const c of fromChecks) add(c.label, c.readings.armatureVoltage ?? readings.armatureVoltage, c.readings.armatureCurrent, c.readings.speed);
   add('running', readings.armatureVoltage, readings.armatureCurrent, readings.speed);
   // Uncoupled on the same supply the terminals see nearly the supply-end voltage (little current, little cable drop); else the running terminal voltage.
   add('uncoupled', readings.supplyVoltage ?? readings.armatureVoltage, readings.noLoadArmatureCurrent, readings.uncoupledSpeed);
-  for (const c of fromChecks) add(c.label, c.readings.armatureVoltage ?? readings.armatureVoltage, c.readings.armatureCurrent, c.readings.speed);
   return out;
 }
 

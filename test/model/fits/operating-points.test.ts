@@ -54,8 +54,8 @@ describe("the job's own operating points", () => {
       { label: 'first readings', readings },
       { label: 'live-coupled-load-current', readings: { armatureCurrent: 20, speed: 1500 } },
     ]);
-    expect(points.map((p) => p.label)).toEqual(['running', 'uncoupled', 'live-coupled-load-current']);
-    expect(points[2]).toEqual({ label: 'live-coupled-load-current', volts: 220, amps: 20, rpm: 1500 });
+    expect(points.map((p) => p.label)).toEqual(['first readings', 'live-coupled-load-current', 'uncoupled']);
+    expect(points[1]).toEqual({ label: 'live-coupled-load-current', volts: 220, amps: 20, rpm: 1500 });
   });
 
   it('measures an extra 0.6 Ω as three times the circuit, with kΦ where it should be, and says so in numbers', () => {
@@ -75,6 +75,17 @@ describe("the job's own operating points", () => {
     const extra = (r: typeof byLine) => r.hypotheses.find((h) => h.id === 'extraResistance')!;
     expect(extra(byLine).value).toBeCloseTo(extra(byArmature).value, 9);
     expect(extra(byLine).value).toBeCloseTo(0.6, 3);
+  });
+
+  it('a worked check that reads current and speed at another load is a second point in the diagnosis', async () => {
+    const base = builtInRules();
+    const readings = { armatureVoltage: 220, armatureCurrent: 40, speed: speed(40, 0.6), fieldCurrent: 1 };
+    const check = { id: 'live-coupled-load-current', result: 'inconclusive' as const, readings: { armatureCurrent: 12, speed: speed(12, 0.6) } };
+    const d = await diagnose({ machine, readings, checks: [check] } as never, base, buildEngine(base));
+    const circuit = (d.facts.fit as { circuit?: { points: number; resistanceRatio: number } }).circuit;
+    expect(circuit?.points).toBe(2);
+    expect(circuit?.resistanceRatio).toBeCloseTo(3, 6);
+    expect(d.causes[0]?.evidence.map((e) => e.says)).toContain('from 2 operating points (first readings, live-coupled-load-current) the armature circuit measures 0.9 Ω, 3 × the 0.3 Ω it should have, with kΦ at 100 % of healthy');
   });
 
   it('needs two points far enough apart in current, and a fixed supply', () => {
