@@ -4,7 +4,7 @@
  * loop reruns with the derived facts merged until nothing new appears: the result does not depend
  * on the order rules were loaded in.
  */
-import { Engine, type RuleResult, type TopLevelCondition } from 'json-rules-engine';
+import { Engine, Fact, Rule as EngineRule, type RuleProperties, type RuleResult, type TopLevelCondition } from 'json-rules-engine';
 import type { Condition, Rule } from '../knowledge/rulebase-schema.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import type { Facts } from './facts.js';
@@ -40,18 +40,33 @@ const CAUTION_PREFIX = 'caution:';
 const known = (a: unknown) => a !== undefined && a !== null;
 
 /**
- * The rule base as two engines: the derive rules, run to a fixpoint, and everything else
+ * The rule base as two rule sets: the derive rules, run to a fixpoint, and everything else
  * (evidence, rule-outs, warnings, question conditions), run once on the settled facts. Only
  * derive rules add facts, so the result is the same as rerunning everything, for fewer runs.
  */
 export interface RuleEngines {
-  derive: Engine;
-  judge: Engine;
+  derive: ScreenedRules;
+  judge: ScreenedRules;
+  /** The rule base's rules by name (names are unique in a loaded rule base: the loader checks it). */
+  byName: ReadonlyMap<string, Rule>;
 }
 
 function readPath(value: unknown, path: string): unknown {
   const name = path.slice(2);
   return value !== null && typeof value === 'object' && Object.hasOwn(value, name) ? (value as Record<string, unknown>)[name] : undefined;
+}
+
+/** The part of json-rules-engine's Operator the screen calls (the class declares only its name). */
+interface Judging {
+  evaluate(factValue: unknown, value: unknown): boolean;
+}
+
+/** A leaf of a rule's top-level `all` that compares a fact with a constant: false there means the rule cannot fire. */
+interface Gate {
+  fact: string;
+  path: string | undefined;
+  operator: Judging;
+  value: unknown;
 }
 
 function newEngine(base: RuleBase): Engine {
@@ -67,24 +82,81 @@ function newEngine(base: RuleBase): Engine {
   return engine;
 }
 
-/** Builds the engines for a rule base once; each job gets fresh runs with its own facts. */
+/**
+ * Rules built once, run on each job's facts by a fresh engine that holds only the rules that can
+ * still fire. Every json-rules-engine run copies each rule's whole condition tree and evaluates
+ * it through promises, and most rules of a job fail on a single leaf (a symptom it does not
+ * have, an observation nobody made). So before a run each rule's top-level `all` leaves that
+ * compare a fact with a constant are judged by the engine's own operators, on the fact read as
+ * the engine reads it; a rule one of them fails is left out, as the engine would have failed it.
+ * The engine still decides every rule it runs, with its whole condition tree for explanations.
+ */
+export class ScreenedRules {
+  private readonly rules: { rule: EngineRule; gates: Gate[] }[];
+  private readonly operators: { get(name: string): Judging | null };
+  /** How many rules: the derive set's bounds the runs to a fixpoint. */
+  readonly size: number;
+
+  constructor(
+    private readonly base: RuleBase,
+    rules: RuleProperties[],
+  ) {
+    // The operators json-rules-engine evaluates with, so that the screen judges exactly as the run does.
+    this.operators = (newEngine(base) as unknown as { operators: { get(name: string): Judging | null } }).operators;
+    this.rules = rules.map((r) => ({ rule: new EngineRule(r), gates: this.gatesOf(r.conditions) }));
+    this.size = rules.length;
+  }
+
+  private gatesOf(c: TopLevelCondition): Gate[] {
+    if (!('all' in c)) return [];
+    const gates: Gate[] = [];
+    for (const leaf of c.all) {
+      if (!('fact' in leaf) || !('operator' in leaf)) continue;
+      const value: unknown = leaf.value;
+      // A value that is another fact is read at run time: not a gate.
+      if (value !== null && typeof value === 'object' && !Array.isArray(value)) continue;
+      const operator = this.operators.get(leaf.operator);
+      if (operator) gates.push({ fact: leaf.fact, path: leaf.path, operator, value });
+    }
+    return gates;
+  }
+
+  /** Runs the rules that can fire on these facts; resolves to the rules that fired. */
+  async run(facts: Facts): Promise<{ results: RuleResult[] }> {
+    const engine = newEngine(this.base);
+    for (const { rule, gates } of this.rules) if (gates.every((g) => g.operator.evaluate(factValue(facts, g), g.value))) engine.addRule(rule);
+    // A fact given as a value is cached under a hash of its id, a cache never read for a
+    // constant: the same fact without it costs no hashing.
+    const constants: Record<string, Fact> = {};
+    for (const [id, value] of Object.entries(facts)) constants[id] = new Fact(id, value, { cache: false });
+    return engine.run(constants);
+  }
+}
+
+/** A fact as json-rules-engine's almanac reads it for a condition: the value, then its path if it is an object. */
+function factValue(facts: Facts, gate: Gate): unknown {
+  const value = Object.hasOwn(facts, gate.fact) ? facts[gate.fact] : undefined;
+  return gate.path !== undefined && value !== null && typeof value === 'object' ? readPath(value, gate.path) : value;
+}
+
+/** Builds the rule sets for a rule base once; each job gets fresh runs with its own facts. */
 export function buildEngine(base: RuleBase): RuleEngines {
-  const derive = newEngine(base);
-  const judge = newEngine(base);
+  const derive: RuleProperties[] = [];
+  const judge: RuleProperties[] = [];
   for (const { rule } of base.rules) {
-    (rule.kind === 'derive' ? derive : judge).addRule({ name: rule.name, priority: 1, conditions: topLevel(rule.conditions), event: { type: rule.kind } });
+    (rule.kind === 'derive' ? derive : judge).push({ name: rule.name, priority: 1, conditions: topLevel(rule.conditions), event: { type: rule.kind } });
   }
   // A question's askWhen is a rule of its own, so the engine decides it along with the rest.
   for (const q of base.questions) {
-    if (q.askWhen) judge.addRule({ name: `${ASK_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askWhen), event: { type: 'askable' } });
-    if (q.askFirstWhen) judge.addRule({ name: `${ASK_FIRST_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askFirstWhen), event: { type: 'ask-first' } });
+    if (q.askWhen) judge.push({ name: `${ASK_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askWhen), event: { type: 'askable' } });
+    if (q.askFirstWhen) judge.push({ name: `${ASK_FIRST_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askFirstWhen), event: { type: 'ask-first' } });
   }
   // So are a check's safety conditions: when it is unsafe, and which conditional hazards apply.
   for (const c of base.checks) {
-    if (c.unsafeWhen) judge.addRule({ name: `${UNSAFE_PREFIX}${c.id}`, priority: 1, conditions: topLevel(c.unsafeWhen.condition), event: { type: 'unsafe' } });
-    c.cautions?.forEach((caution, k) => judge.addRule({ name: `${CAUTION_PREFIX}${c.id}:${k}`, priority: 1, conditions: topLevel(caution.when), event: { type: 'caution' } }));
+    if (c.unsafeWhen) judge.push({ name: `${UNSAFE_PREFIX}${c.id}`, priority: 1, conditions: topLevel(c.unsafeWhen.condition), event: { type: 'unsafe' } });
+    c.cautions?.forEach((caution, k) => judge.push({ name: `${CAUTION_PREFIX}${c.id}:${k}`, priority: 1, conditions: topLevel(caution.when), event: { type: 'caution' } }));
   }
-  return { derive, judge };
+  return { derive: new ScreenedRules(base, derive), judge: new ScreenedRules(base, judge), byName: new Map(base.rules.map(({ rule }) => [rule.name, rule])) };
 }
 
 function topLevel(c: Condition): TopLevelCondition {
@@ -92,10 +164,9 @@ function topLevel(c: Condition): TopLevelCondition {
 }
 
 export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start: Facts): Promise<RunOutcome> {
-  const limit = base.rules.filter((r) => r.rule.kind === 'derive').length + 2;
-  const byName = new Map(base.rules.map(({ rule }) => [rule.name, rule]));
+  const limit = engines.derive.size + 2;
+  const byName = engines.byName;
   const firedOf = (results: RuleResult[]): Fired[] =>
-    // Rule names are unique in a loaded rule base (the loader checks it).
     results.filter((r) => byName.has(String(r.name))).map((r) => ({ rule: byName.get(String(r.name))!, tree: r.toJSON(false).conditions }));
   let facts = { ...start };
   let derived: Fired[] = [];
