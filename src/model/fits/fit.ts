@@ -98,6 +98,26 @@ export function neutralWorld(b: FitBasis, r: Readings): World {
 
 /** The machine equations under one world at armature current `ia`. */
 export function predict(b: FitBasis, w: World, ia: number): Prediction {
+  const m = machineAt(b, w, ia);
+  const phi = m.fluxAt(ia);
+  return {
+    armatureVoltage: m.terminal,
+    supplyVoltage: w.sourceVolts,
+    fieldCurrent: m.field,
+    speed: m.speedAt(ia),
+    torquePu: (phi * ia) / b.ratedAmps,
+    noLoadSpeed: m.speedAt(0.05 * b.ratedAmps),
+  };
+}
+
+/** The readings alone (what a fit's misfit needs), without the torque and the no-load speed. */
+function predictReadings(b: FitBasis, w: World, ia: number): Omit<Prediction, 'torquePu' | 'noLoadSpeed'> {
+  const m = machineAt(b, w, ia);
+  return { armatureVoltage: m.terminal, supplyVoltage: w.sourceVolts, fieldCurrent: m.field, speed: m.speedAt(ia) };
+}
+
+/** The machine under one world, its terminals at armature current `ia`: field current, and flux and speed at any current. */
+function machineAt(b: FitBasis, w: World, ia: number) {
   const terminal = w.sourceVolts - ia * w.cableOhms;
   let field: number | undefined;
   let fieldPu = 0;
@@ -121,32 +141,35 @@ export function predict(b: FitBasis, w: World, ia: number): Prediction {
     const e = terminal - amps * (b.circuitOhms + w.extraOhms) - (amps > 0 ? b.brushDrop : 0);
     return phi > 1e-6 ? radSToRpm(e / (b.kPhiRated * phi)) : Number.POSITIVE_INFINITY;
   };
-  const phi = fluxAt(ia);
-  return {
-    armatureVoltage: terminal,
-    supplyVoltage: w.sourceVolts,
-    fieldCurrent: field,
-    speed: speedAt(ia),
-    torquePu: (phi * ia) / b.ratedAmps,
-    noLoadSpeed: speedAt(0.05 * b.ratedAmps),
-  };
+  return { terminal, field, fluxAt, speedAt };
 }
 
-function residualsOf(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number = FIT_READINGS.speed.tolerance): Residual[] {
-  const out: Residual[] = [];
+/** Each reading's residual under a prediction, in a fixed order: speed, field current, terminal voltage, supply voltage. */
+function eachResidual(b: FitBasis, r: Readings, p: Omit<Prediction, 'torquePu' | 'noLoadSpeed'>, speedTolerance: number, visit: (reading: FitReading, predicted: number, measured: number, share: number, z: number) => void): void {
   const add = (reading: FitReading, predicted: number, measured: number | undefined, scale: number) => {
     if (measured === undefined || !(scale > 0)) return;
     const share = Number.isFinite(predicted) ? (predicted - measured) / scale : 10;
-    out.push({ reading, predicted, measured, share, z: share / (reading === 'speed' ? speedTolerance : FIT_READINGS[reading].tolerance) });
+    visit(reading, predicted, measured, share, share / (reading === 'speed' ? speedTolerance : FIT_READINGS[reading].tolerance));
   };
   if (r.speed !== undefined && r.speed > 0) add('speed', p.speed, r.speed, r.speed);
   if (b.shuntField && p.fieldCurrent !== undefined) add('fieldCurrent', p.fieldCurrent, r.fieldCurrent, b.ratedFieldAmps!);
   add('armatureVoltage', p.armatureVoltage, r.armatureVoltage, b.ratedVolts);
   if (!b.voltageFree) add('supplyVoltage', p.supplyVoltage, r.supplyVoltage, b.ratedVolts);
+}
+
+function residualsOf(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number = FIT_READINGS.speed.tolerance): Residual[] {
+  const out: Residual[] = [];
+  eachResidual(b, r, p, speedTolerance, (reading, predicted, measured, share, z) => out.push({ reading, predicted, measured, share, z }));
   return out;
 }
 
-const sumSquares = (rs: Residual[]) => rs.reduce((s, x) => s + x.z * x.z, 0);
+/** The sum of squared residuals (in tolerances) that a fit minimises: the sum residualsOf's list would give, without building it. */
+function misfit(b: FitBasis, r: Readings, p: Omit<Prediction, 'torquePu' | 'noLoadSpeed'>, speedTolerance: number): number {
+  let sum = 0;
+  eachResidual(b, r, p, speedTolerance, (_reading, _predicted, _measured, _share, z) => (sum += z * z));
+  return sum;
+}
+
 const worst = (rs: Residual[], key: 'z' | 'share') => rs.reduce((m, x) => Math.max(m, Math.abs(x[key])), 0);
 
 /** A one-parameter least-squares minimum: a grid for the bracket, then golden-section search. */
@@ -222,7 +245,7 @@ export function fitReadings(machine: ModelMachine, r: Readings): FitReport | und
     }
     const [lo, hi] = h.search(b, r);
     const at = (x: number) => predict(b, h.world!(x, neutral), ia);
-    const value = minimise((x) => sumSquares(residuals(at(x))), lo, hi);
+    const value = minimise((x) => misfit(b, r, predictReadings(b, h.world!(x, neutral), ia), speedTolerance), lo, hi);
     const prediction = at(value);
     const rs = residuals(prediction);
     // The load this fault would leave on the shaft: beyond rating, the current is not explained.
