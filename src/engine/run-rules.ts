@@ -61,13 +61,18 @@ interface Judging {
   evaluate(factValue: unknown, value: unknown): boolean;
 }
 
-/** A leaf of a rule's top-level `all` that compares a fact with a constant: false there means the rule cannot fire. */
-interface Gate {
+/** A fact as a condition names it: the fact, and a path into it. */
+interface FactRef {
   fact: string;
   path: string | undefined;
-  operator: Judging;
-  value: unknown;
 }
+
+/**
+ * The part of a condition the screen can judge before a run: comparisons of a fact with a
+ * constant or with another fact, and `all` and `any` of those (a `not` is never judged). When a
+ * screen fails, the condition is false.
+ */
+type Screen = { compare: FactRef; operator: Judging; value: unknown; valueFact?: FactRef } | { all: Screen[] } | { any: Screen[] };
 
 function newEngine(base: RuleBase): Engine {
   // Paths are "$.name" (the schema allows no other): a property read, not a JSONPath query,
@@ -85,14 +90,14 @@ function newEngine(base: RuleBase): Engine {
 /**
  * Rules built once, run on each job's facts by a fresh engine that holds only the rules that can
  * still fire. Every json-rules-engine run copies each rule's whole condition tree and evaluates
- * it through promises, and most rules of a job fail on a single leaf (a symptom it does not
- * have, an observation nobody made). So before a run each rule's top-level `all` leaves that
- * compare a fact with a constant are judged by the engine's own operators, on the fact read as
- * the engine reads it; a rule one of them fails is left out, as the engine would have failed it.
+ * it through promises, and most rules of a job fail on a single comparison (a symptom it does
+ * not have, an observation nobody made). So before a run each rule's comparisons are judged by
+ * the engine's own operators, on the facts read as the engine reads them, through `all`, `any`
+ * and shared conditions; a rule they show false is left out, as the engine would have failed it.
  * The engine still decides every rule it runs, with its whole condition tree for explanations.
  */
 export class ScreenedRules {
-  private readonly rules: { rule: EngineRule; gates: Gate[] }[];
+  private readonly rules: { rule: EngineRule; screen: Screen | undefined }[];
   private readonly operators: { get(name: string): Judging | null };
   /** How many rules: the derive set's bounds the runs to a fixpoint. */
   readonly size: number;
@@ -103,28 +108,44 @@ export class ScreenedRules {
   ) {
     // The operators json-rules-engine evaluates with, so that the screen judges exactly as the run does.
     this.operators = (newEngine(base) as unknown as { operators: { get(name: string): Judging | null } }).operators;
-    this.rules = rules.map((r) => ({ rule: new EngineRule(r), gates: this.gatesOf(r.conditions) }));
+    this.rules = rules.map((r) => ({ rule: new EngineRule(r), screen: this.screenOf(r.conditions as Condition, new Set()) }));
     this.size = rules.length;
   }
 
-  private gatesOf(c: TopLevelCondition): Gate[] {
-    if (!('all' in c)) return [];
-    const gates: Gate[] = [];
-    for (const leaf of c.all) {
-      if (!('fact' in leaf) || !('operator' in leaf)) continue;
-      const value: unknown = leaf.value;
-      // A value that is another fact is read at run time: not a gate.
-      if (value !== null && typeof value === 'object' && !Array.isArray(value)) continue;
-      const operator = this.operators.get(leaf.operator);
-      if (operator) gates.push({ fact: leaf.fact, path: leaf.path, operator, value });
+  /** What of a condition can be judged before a run; undefined when nothing can. */
+  private screenOf(c: Condition, via: Set<string>): Screen | undefined {
+    if ('all' in c) {
+      // All fails when any judged part fails: the parts not judged are left out.
+      const parts = c.all.flatMap((x) => this.screenOf(x, via) ?? []);
+      return parts.length ? { all: parts } : undefined;
     }
-    return gates;
+    if ('any' in c) {
+      // Any fails only when every part fails: one part not judged leaves it undecided.
+      const parts = c.any.map((x) => this.screenOf(x, via));
+      return parts.every((x) => x !== undefined) ? { any: parts as Screen[] } : undefined;
+    }
+    if ('condition' in c) {
+      // The engine evaluates a shared condition in the place of its reference.
+      const shared = Object.hasOwn(this.base.conditions, c.condition) ? this.base.conditions[c.condition] : undefined;
+      if (!shared || via.has(c.condition)) return undefined;
+      return this.screenOf(shared, new Set([...via, c.condition]));
+    }
+    if ('not' in c) return undefined;
+    const operator = this.operators.get(c.operator);
+    if (!operator) return undefined;
+    const compare = { fact: c.fact, path: c.path };
+    const value: unknown = c.value;
+    if (value !== null && typeof value === 'object' && !Array.isArray(value)) {
+      const other = value as { fact: string; path?: string | undefined };
+      return { compare, operator, value, valueFact: { fact: other.fact, path: other.path } };
+    }
+    return { compare, operator, value };
   }
 
   /** Runs the rules that can fire on these facts; resolves to the rules that fired. */
   async run(facts: Facts): Promise<{ results: RuleResult[] }> {
     const engine = newEngine(this.base);
-    for (const { rule, gates } of this.rules) if (gates.every((g) => g.operator.evaluate(factValue(facts, g), g.value))) engine.addRule(rule);
+    for (const { rule, screen } of this.rules) if (!screen || !fails(screen, facts)) engine.addRule(rule);
     // A fact given as a value is cached under a hash of its id, a cache never read for a
     // constant: the same fact without it costs no hashing.
     const constants: Record<string, Fact> = {};
@@ -133,10 +154,18 @@ export class ScreenedRules {
   }
 }
 
+/** Whether a screen shows its condition false on these facts. */
+function fails(screen: Screen, facts: Facts): boolean {
+  if ('all' in screen) return screen.all.some((x) => fails(x, facts));
+  if ('any' in screen) return screen.any.every((x) => fails(x, facts));
+  const value = screen.valueFact ? factValue(facts, screen.valueFact) : screen.value;
+  return !screen.operator.evaluate(factValue(facts, screen.compare), value);
+}
+
 /** A fact as json-rules-engine's almanac reads it for a condition: the value, then its path if it is an object. */
-function factValue(facts: Facts, gate: Gate): unknown {
-  const value = Object.hasOwn(facts, gate.fact) ? facts[gate.fact] : undefined;
-  return gate.path !== undefined && value !== null && typeof value === 'object' ? readPath(value, gate.path) : value;
+function factValue(facts: Facts, ref: FactRef): unknown {
+  const value = Object.hasOwn(facts, ref.fact) ? facts[ref.fact] : undefined;
+  return ref.path !== undefined && value !== null && typeof value === 'object' ? readPath(value, ref.path) : value;
 }
 
 /** Builds the rule sets for a rule base once; each job gets fresh runs with its own facts. */
