@@ -61,10 +61,10 @@ interface Judging {
   evaluate(factValue: unknown, value: unknown): boolean;
 }
 
-/** A fact as a condition names it: the fact, and a path into it. */
+/** A fact as a condition names it: the fact, and the property its path ("$.name") reads, if any. */
 interface FactRef {
   fact: string;
-  path: string | undefined;
+  property: string | undefined;
 }
 
 /**
@@ -133,39 +133,55 @@ export class ScreenedRules {
     if ('not' in c) return undefined;
     const operator = this.operators.get(c.operator);
     if (!operator) return undefined;
-    const compare = { fact: c.fact, path: c.path };
+    const compare = { fact: c.fact, property: c.path?.slice(2) };
     const value: unknown = c.value;
     if (value !== null && typeof value === 'object' && !Array.isArray(value)) {
       const other = value as { fact: string; path?: string | undefined };
-      return { compare, operator, value, valueFact: { fact: other.fact, path: other.path } };
+      return { compare, operator, value, valueFact: { fact: other.fact, property: other.path?.slice(2) } };
     }
     return { compare, operator, value };
   }
 
   /** Runs the rules that can fire on these facts; resolves to the rules that fired. */
-  async run(facts: Facts): Promise<{ results: RuleResult[] }> {
+  run(facts: Facts): Promise<{ results: RuleResult[] }> {
+    return this.runRules(facts, true);
+  }
+
+  /** Runs every rule, unscreened: what the screen is held to (test/engine/screened-rules.test.ts). */
+  runAll(facts: Facts): Promise<{ results: RuleResult[] }> {
+    return this.runRules(facts, false);
+  }
+
+  private async runRules(facts: Facts, screened: boolean): Promise<{ results: RuleResult[] }> {
     const engine = newEngine(this.base);
-    for (const { rule, screen } of this.rules) if (!screen || !fails(screen, facts)) engine.addRule(rule);
+    for (const { rule, screen } of this.rules) if (!screened || !screen || !fails(screen, facts)) engine.addRule(rule);
     // A fact given as a value is cached under a hash of its id, a cache never read for a
     // constant: the same fact without it costs no hashing.
     const constants: Record<string, Fact> = {};
-    for (const [id, value] of Object.entries(facts)) constants[id] = new Fact(id, value, { cache: false });
+    for (const id of Object.keys(facts)) constants[id] = new Fact(id, facts[id], { cache: false });
     return engine.run(constants);
   }
 }
 
 /** Whether a screen shows its condition false on these facts. */
 function fails(screen: Screen, facts: Facts): boolean {
-  if ('all' in screen) return screen.all.some((x) => fails(x, facts));
-  if ('any' in screen) return screen.any.every((x) => fails(x, facts));
+  if ('all' in screen) {
+    for (const x of screen.all) if (fails(x, facts)) return true;
+    return false;
+  }
+  if ('any' in screen) {
+    for (const x of screen.any) if (!fails(x, facts)) return false;
+    return true;
+  }
   const value = screen.valueFact ? factValue(facts, screen.valueFact) : screen.value;
   return !screen.operator.evaluate(factValue(facts, screen.compare), value);
 }
 
-/** A fact as json-rules-engine's almanac reads it for a condition: the value, then its path if it is an object. */
+/** A fact as json-rules-engine's almanac reads it for a condition: the value, then its path if it is an object (see readPath). */
 function factValue(facts: Facts, ref: FactRef): unknown {
   const value = Object.hasOwn(facts, ref.fact) ? facts[ref.fact] : undefined;
-  return ref.path !== undefined && value !== null && typeof value === 'object' ? readPath(value, ref.path) : value;
+  if (ref.property === undefined || value === null || typeof value !== 'object') return value;
+  return Object.hasOwn(value, ref.property) ? (value as Record<string, unknown>)[ref.property] : undefined;
 }
 
 /** Builds the rule sets for a rule base once; each job gets fresh runs with its own facts. */

@@ -17,7 +17,7 @@ const BATCH = 50;
 const MIN_FILES = 200;
 const MAX_WORKERS = 8;
 /** Enough for the built-in rules with room to spare; a worker that runs out hands its batch back. */
-const WORKER_LIMITS = { maxOldGenerationSizeMb: Number(process.env.DCTRIAGE_WORKER_HEAP_MB) || 48, maxYoungGenerationSizeMb: 8 };
+const WORKER_LIMITS = { maxOldGenerationSizeMb: Number(process.env.DCTRIAGE_WORKER_HEAP_MB) || 48, maxYoungGenerationSizeMb: Number(process.env.DCTRIAGE_WORKER_YOUNG_MB) || 8 };
 
 type Ranked = CaseRank | { skipped: SkippedCase } | { issues: Issue[] };
 interface WorkerJob {
