@@ -153,6 +153,8 @@ export class ScreenedRules {
   }
 
   private async runRules(facts: Facts, screened: boolean): Promise<{ results: RuleResult[] }> {
+    // Adding a rule points it at this run's engine; runs that overlap point it at engines made
+    // alike (the same operators and shared conditions), so a rule evaluates the same in either.
     const engine = newEngine(this.base);
     for (const { rule, screen } of this.rules) if (!screened || !screen || !fails(screen, facts)) engine.addRule(rule);
     // A fact given as a value is cached under a hash of its id, a cache never read for a
