@@ -27,7 +27,10 @@ function sample(): unknown[] {
   const cycle: Record<string, unknown> = { name: 'loop' };
   cycle.self = cycle;
   const withHidden = Object.defineProperty(new Shadowing(), 'hidden', { value: 5, enumerable: true });
-  return [conditions, { twice: [shared, shared] }, cycle, withHidden, { toString: 'own' }, new Map([['k', { v: 1 }]]), new Date(0), [1, , 3], Object.create(null), 'text', 7, null];
+  // An array with a hole, which a copy keeps a hole.
+  const holed: number[] = [1];
+  holed[2] = 3;
+  return [conditions, { twice: [shared, shared] }, cycle, withHidden, { toString: 'own' }, new Map([['k', { v: 1 }]]), new Date(0), holed, Object.create(null), 'text', 7, null];
 }
 
 describe('the deep copy json-rules-engine is bundled with', () => {
