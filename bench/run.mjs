@@ -4,10 +4,11 @@
  * measure. Prints a table of medians. Not a test: nothing here fails on a slow machine.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { cpSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync, mkdirSync } from 'node:fs';
+import { cpSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { generateCases, timeCasesCheck } from './cases-scale.mjs';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 const cli = join(root, 'dist', 'cli.mjs');
@@ -53,24 +54,13 @@ writeFileSync(join(big, 'bench-clones.json'), JSON.stringify({ family: 'bench cl
 const synthetic = latency(big);
 rows.push([`answer → next question, synthetic ${synthetic.rules} rules (in-process)`, synthetic.median, null, `p90 ${synthetic.p90.toFixed(1)} ms; target ≤ 500 ms`]);
 
-// 20,000 cases made from the recorded ones: same jobs, new ids, readings nudged by up to ±2 %.
+// 20,000 cases made from the recorded ones (bench/cases-scale.mjs): one run each way, a run is long.
 const CASES = Number(process.env.BENCH_CASES ?? 20000);
 const many = mkdtempSync(join(tmpdir(), 'dctriage-bench-cases-'));
-const recorded = readdirSync(join(root, 'cases')).filter((f) => f.endsWith('.json')).map((f) => JSON.parse(readFileSync(join(root, 'cases', f), 'utf8')));
-const nudge = (v, k) => (typeof v === 'string' ? v.replace(/^(-?\d+(\.\d+)?)/, (n) => String(Number((Number(n) * (1 + (((k * 37) % 9) - 4) / 200)).toPrecision(4)))) : typeof v === 'number' ? v * (1 + (((k * 37) % 9) - 4) / 200) : v);
-mkdirSync(many, { recursive: true });
-for (let k = 0; k < CASES; k++) {
-  const c = structuredClone(recorded[k % recorded.length]);
-  c.id = `${c.id}-b${k}`;
-  if (c.readings) for (const key of Object.keys(c.readings)) if (key !== 'insulationTestedWinding') c.readings[key] = nudge(c.readings[key], k);
-  writeFileSync(join(many, `${k}.json`), JSON.stringify(c));
-}
-// One run each way (a run is long): wall time, CPU time and peak memory from /usr/bin/time.
+generateCases(CASES, many);
 for (const threads of ['', '1']) {
-  const out = spawnSync('/usr/bin/time', ['-f', '%e %U %S %M', process.execPath, cli, 'cases', 'check', many, '--json', '--rules', join(root, 'rules')], { encoding: 'utf8', maxBuffer: 256 * 1024 * 1024, env: { ...process.env, DCTRIAGE_THREADS: threads } });
-  const [wall, user, sys, peakKb] = out.stderr.trim().split('\n').at(-1).split(' ').map(Number);
-  const report = JSON.parse(out.stdout);
-  rows.push([`cases check over ${CASES} generated cases, ${threads ? 'one thread' : 'all cores'}`, wall * 1000, null, `top-3 ${report.top3}/${report.total}; CPU ${(user + sys).toFixed(1)} s; peak RSS ${(peakKb / 1024).toFixed(0)} MB; targets < 20 s, < 150 MB`]);
+  const r = timeCasesCheck(many, threads);
+  rows.push([`cases check over ${CASES} generated cases, ${threads ? 'one thread' : 'all cores'}`, r.wall * 1000, null, `top-3 ${r.top3}/${r.total}; CPU ${r.cpu.toFixed(1)} s; peak RSS ${r.peakMb.toFixed(0)} MB; targets < 20 s, < 150 MB`]);
 }
 
 const pad = (s, n) => String(s).padEnd(n);

@@ -5,6 +5,26 @@
 // a Date, a Buffer…) is handed, with what is inside it, to the package itself.
 const original = require('../node_modules/clone/clone.js');
 
+/**
+ * What copying needs to know of a prototype, worked out once for each: whether its objects are
+ * handed to the package (not plain, or a Map, a Set, a Date…), and which keys of its own it
+ * shadows (as the package does: a key the prototype holds without a setter is not copied).
+ * Prototypes are not changed while a rule runs, so what is learnt stays true.
+ */
+const prototypes = new WeakMap();
+function prototypeOf(proto, value) {
+  let known = prototypes.get(proto);
+  if (known === undefined) {
+    const plain = proto === Object.prototype || Object.getPrototypeOf(proto) === Object.prototype;
+    const special = !plain || value instanceof Map || value instanceof Set || value instanceof Date || value instanceof RegExp || value instanceof Error || value instanceof Promise;
+    const shadowed = new Set();
+    for (const key of Object.getOwnPropertyNames(proto)) if (Object.getOwnPropertyDescriptor(proto, key).set == null) shadowed.add(key);
+    known = { special, shadowed };
+    prototypes.set(proto, known);
+  }
+  return known;
+}
+
 function clone(parent) {
   const copied = new Map();
   const copy = (value) => {
@@ -19,14 +39,12 @@ function clone(parent) {
       return out;
     }
     const proto = Object.getPrototypeOf(value);
-    const plain = proto === null || proto === Object.prototype || Object.getPrototypeOf(proto) === Object.prototype;
-    if (!plain || value instanceof Map || value instanceof Set || value instanceof Date || value instanceof RegExp || value instanceof Error || value instanceof Promise || ArrayBuffer.isView(value) || Object.getOwnPropertySymbols(value).length > 0) return original(value);
+    const known = proto === null ? undefined : prototypeOf(proto, value);
+    if ((known && known.special) || ArrayBuffer.isView(value) || Object.getOwnPropertySymbols(value).length > 0) return original(value);
     const out = Object.create(proto);
     copied.set(value, out);
     for (const key in value) {
-      const own = proto === null ? undefined : Object.getOwnPropertyDescriptor(proto, key);
-      // As the package does: an accessor of the prototype without a setter is not copied.
-      if (own && own.set == null) continue;
+      if (known && known.shadowed.has(key)) continue;
       out[key] = copy(value[key]);
     }
     return out;

@@ -8,7 +8,7 @@ import { diagnose } from './diagnose.js';
 
 /** Case files whose issues are listed; the rest are counted. */
 const FILES_WITH_ISSUES_SHOWN = 20;
-import { buildEngine } from './run-rules.js';
+import { buildEngine, type RuleEngines } from './run-rules.js';
 
 export interface CaseRank {
   id: string;
@@ -91,8 +91,7 @@ export async function rankCaseFile(file: string, causeIds: ReadonlySet<string>, 
 }
 
 /** The runner that diagnoses a whole case with one engine for all: the rules' own ranking, its recorded checks replayed apart. */
-export function wholeCaseRunner(base: RuleBase): CaseRunner {
-  const engine = buildEngine(base);
+export function wholeCaseRunner(base: RuleBase, engine: RuleEngines = buildEngine(base)): CaseRunner {
   return async (c) => ({ ranked: (await diagnose({ ...c, checks: [] }, base, engine)).causes.map((x) => x.id) });
 }
 
@@ -106,8 +105,7 @@ export function sameCause(base: RuleBase): (a: string, b: string) => boolean {
 }
 
 /** Replays a case's recorded checks in order: where the loop confirmed a cause, and after how many minutes. */
-export function loopReplayer(base: RuleBase): LoopReplayer {
-  const engine = buildEngine(base);
+export function loopReplayer(base: RuleBase, engine: RuleEngines = buildEngine(base)): LoopReplayer {
   const same = sameCause(base);
   const minutesOf = new Map(base.checks.map((c) => [c.id, c.minutes]));
   return async (job, expected) => {
@@ -138,8 +136,10 @@ export class CaseIssues {
 }
 
 export async function checkCases(files: string[], base: RuleBase, runner?: CaseRunner, stream: CaseStream = {}): Promise<Result<CaseCheckReport>> {
-  const run = runner ?? wholeCaseRunner(base);
-  const replay = loopReplayer(base);
+  // One set of engines for the ranking and the replays: runs share no state.
+  const engine = buildEngine(base);
+  const run = runner ?? wholeCaseRunner(base, engine);
+  const replay = loopReplayer(base, engine);
   const same = sameCause(base);
   const causeIds = new Set(base.causes.map((c) => c.id));
   const issues = new CaseIssues();

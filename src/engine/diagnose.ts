@@ -99,7 +99,8 @@ export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 
 export type LoopStatus = 'open' | 'confirmed' | 'exhausted';
 
 export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngines): Promise<Diagnosis> {
-  const worked = (input.checks ?? []).filter((w) => base.checks.some((c) => c.id === w.id));
+  const { checkById, shows, titleOf, catalogue, hazardText } = indexOf(base);
+  const worked = (input.checks ?? []).filter((w) => checkById.has(w.id));
   // What the checks measured and saw enters the model and the rules like any other reading.
   const job = withCheckFindings(input, worked);
   const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
@@ -136,8 +137,6 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
       (!a.drives || a.drives.includes(job.machine.drive ?? 'unknown')) &&
       (!a.feedback || a.feedback.includes(job.machine.feedback ?? 'unknown')));
 
-  const checkById = new Map(base.checks.map((c) => [c.id, c]));
-  const shows = checksShow(base);
   const ruleScores = new Map<string, number>();
   const ruledOut: Diagnosis['ruledOut'] = [];
   for (const cause of base.causes) {
@@ -148,7 +147,6 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
   // Then what the checks found, in the order they were worked.
   const fromResults = resultEvidence(worked, checkById, shows, ruleScores);
   for (const [cause, evidence] of fromResults) weights.set(cause, [...(weights.get(cause) ?? []), ...evidence]);
-  const titleOf = new Map(base.causes.map((c) => [c.id, c.title]));
   const effects = worked.map((w) => ({
     check: w.id,
     effects: [...fromResults].flatMap(([cause, evidence]) => evidence.filter((e) => e.rule === `check:${w.id}`).map((e) => ({ cause, title: titleOf.get(cause) ?? cause, weight: e.weight, says: e.says }))),
@@ -174,8 +172,6 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
   const done = new Set(worked.map((w) => w.id));
   const faultFound = worked.find((w) => w.result === 'abnormal' && checkById.get(w.id)?.clearsFaultBeforeEnergising);
   const leading = confirmed ? [] : causes.slice(0, CAUSES_WITH_CHECKS);
-  const catalogue = new Map(base.causes.map((c) => [c.id, c]));
-  const hazardText = new Map(base.safety.hazards.map((h) => [h.id, h.says]));
   const safe = safeChecks(
     leading.map((c) => ({ id: c.id, checks: catalogue.get(c.id)!.checks.filter((k) => !done.has(k)) })),
     checkById,
@@ -270,6 +266,31 @@ function withCheckFindings(job: JobInput, worked: readonly WorkedCheck[]): JobIn
   return { ...job, readings, observations, tests };
 }
 
+/** A rule base's lookups, made once per rule base rather than once per job. */
+interface RuleBaseIndex {
+  checkById: ReadonlyMap<string, Check>;
+  shows: ReadonlyMap<string, readonly string[]>;
+  titleOf: ReadonlyMap<string, string>;
+  catalogue: ReadonlyMap<string, RuleBase['causes'][number]>;
+  hazardText: ReadonlyMap<string, string>;
+}
+const indexes = new WeakMap<RuleBase, RuleBaseIndex>();
+
+function indexOf(base: RuleBase): RuleBaseIndex {
+  let index = indexes.get(base);
+  if (!index) {
+    index = {
+      checkById: new Map(base.checks.map((c) => [c.id, c])),
+      shows: checksShow(base),
+      titleOf: new Map(base.causes.map((c) => [c.id, c.title])),
+      catalogue: new Map(base.causes.map((c) => [c.id, c])),
+      hazardText: new Map(base.safety.hazards.map((h) => [h.id, h.says])),
+    };
+    indexes.set(base, index);
+  }
+  return index;
+}
+
 /** Which causes each check shows: those that list it in the catalogue. */
 export function checksShow(base: RuleBase): Map<string, string[]> {
   const shows = new Map<string, string[]>();
@@ -294,7 +315,7 @@ function confirmation(worked: readonly WorkedCheck[], shows: ReadonlyMap<string,
  * replaced by its safe alternative (or dropped), and after a runaway warning nothing that needs
  * the machine running is offered until the cause is found isolated.
  */
-function safeChecks(leading: { id: string; checks: string[] }[], checkById: Map<string, Check>, unsafe: Set<string>, hold: { runawayWarning: string | undefined; faultFound: string | undefined }) {
+function safeChecks(leading: { id: string; checks: string[] }[], checkById: ReadonlyMap<string, Check>, unsafe: Set<string>, hold: { runawayWarning: string | undefined; faultFound: string | undefined }) {
   const checksOf = new Map<string, string[]>();
   const insteadOf = new Map<string, string>();
   const withheld = new Map<string, WithheldCheck>();

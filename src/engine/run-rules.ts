@@ -4,7 +4,7 @@
  * loop reruns with the derived facts merged until nothing new appears: the result does not depend
  * on the order rules were loaded in.
  */
-import { Engine, type RuleResult, type TopLevelCondition } from 'json-rules-engine';
+import { Engine, Fact, Rule as EngineRule, type RuleProperties, type RuleResult, type TopLevelCondition } from 'json-rules-engine';
 import type { Condition, Rule } from '../knowledge/rulebase-schema.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import type { Facts } from './facts.js';
@@ -40,13 +40,15 @@ const CAUTION_PREFIX = 'caution:';
 const known = (a: unknown) => a !== undefined && a !== null;
 
 /**
- * The rule base as two engines: the derive rules, run to a fixpoint, and everything else
+ * The rule base as two rule sets: the derive rules, run to a fixpoint, and everything else
  * (evidence, rule-outs, warnings, question conditions), run once on the settled facts. Only
  * derive rules add facts, so the result is the same as rerunning everything, for fewer runs.
  */
 export interface RuleEngines {
-  derive: Engine;
-  judge: Engine;
+  derive: ScreenedRules;
+  judge: ScreenedRules;
+  /** The rule base's rules by name (names are unique in a loaded rule base: the loader checks it). */
+  byName: ReadonlyMap<string, Rule>;
 }
 
 /** "$.a" or "$.a.b": own properties only, walked one name at a time. */
@@ -58,6 +60,24 @@ function readPath(value: unknown, path: string): unknown {
   }
   return at;
 }
+
+/** The part of json-rules-engine's Operator the screen calls (the class declares only its name). */
+interface Judging {
+  evaluate(factValue: unknown, value: unknown): boolean;
+}
+
+/** A fact as a condition names it: the fact, and the property its path ("$.name", "$.name.field") reads, if any. */
+interface FactRef {
+  fact: string;
+  property: string | undefined;
+}
+
+/**
+ * The part of a condition the screen can judge before a run: comparisons of a fact with a
+ * constant or with another fact, and `all` and `any` of those (a `not` is never judged). When a
+ * screen fails, the condition is false.
+ */
+type Screen = { compare: FactRef; operator: Judging; value: unknown; valueFact?: FactRef } | { all: Screen[] } | { any: Screen[] };
 
 function newEngine(base: RuleBase): Engine {
   // Paths are "$.name" or "$.name.field" (the schema allows no other): property reads, not a JSONPath query,
@@ -72,24 +92,123 @@ function newEngine(base: RuleBase): Engine {
   return engine;
 }
 
-/** Builds the engines for a rule base once; each job gets fresh runs with its own facts. */
+/**
+ * Rules built once, run on each job's facts by a fresh engine that holds only the rules that can
+ * still fire. Every json-rules-engine run copies each rule's whole condition tree and evaluates
+ * it through promises, and most rules of a job fail on a single comparison (a symptom it does
+ * not have, an observation nobody made). So before a run each rule's comparisons are judged by
+ * the engine's own operators, on the facts read as the engine reads them, through `all`, `any`
+ * and shared conditions; a rule they show false is left out, as the engine would have failed it.
+ * The engine still decides every rule it runs, with its whole condition tree for explanations.
+ */
+export class ScreenedRules {
+  private readonly rules: { rule: EngineRule; screen: Screen | undefined }[];
+  private readonly operators: { get(name: string): Judging | null };
+  /** How many rules: the derive set's bounds the runs to a fixpoint. */
+  readonly size: number;
+
+  constructor(
+    private readonly base: RuleBase,
+    rules: RuleProperties[],
+  ) {
+    // The operators json-rules-engine evaluates with, so that the screen judges exactly as the run does.
+    this.operators = (newEngine(base) as unknown as { operators: { get(name: string): Judging | null } }).operators;
+    this.rules = rules.map((r) => ({ rule: new EngineRule(r), screen: this.screenOf(r.conditions as Condition, new Set()) }));
+    this.size = rules.length;
+  }
+
+  /** What of a condition can be judged before a run; undefined when nothing can. */
+  private screenOf(c: Condition, via: Set<string>): Screen | undefined {
+    if ('all' in c) {
+      // All fails when any judged part fails: the parts not judged are left out.
+      const parts = c.all.flatMap((x) => this.screenOf(x, via) ?? []);
+      return parts.length ? { all: parts } : undefined;
+    }
+    if ('any' in c) {
+      // Any fails only when every part fails: one part not judged leaves it undecided.
+      const parts = c.any.map((x) => this.screenOf(x, via));
+      return parts.every((x) => x !== undefined) ? { any: parts as Screen[] } : undefined;
+    }
+    if ('condition' in c) {
+      // The engine evaluates a shared condition in the place of its reference.
+      const shared = Object.hasOwn(this.base.conditions, c.condition) ? this.base.conditions[c.condition] : undefined;
+      if (!shared || via.has(c.condition)) return undefined;
+      return this.screenOf(shared, new Set([...via, c.condition]));
+    }
+    if ('not' in c) return undefined;
+    const operator = this.operators.get(c.operator);
+    if (!operator) return undefined;
+    const compare = { fact: c.fact, property: c.path?.slice(2) };
+    const value: unknown = c.value;
+    if (value !== null && typeof value === 'object' && !Array.isArray(value)) {
+      const other = value as { fact: string; path?: string | undefined };
+      return { compare, operator, value, valueFact: { fact: other.fact, property: other.path?.slice(2) } };
+    }
+    return { compare, operator, value };
+  }
+
+  /** Runs the rules that can fire on these facts; resolves to the rules that fired. */
+  run(facts: Facts): Promise<{ results: RuleResult[] }> {
+    return this.runRules(facts, true);
+  }
+
+  /** Runs every rule, unscreened: what the screen is held to (test/engine/screened-rules.test.ts). */
+  runAll(facts: Facts): Promise<{ results: RuleResult[] }> {
+    return this.runRules(facts, false);
+  }
+
+  private async runRules(facts: Facts, screened: boolean): Promise<{ results: RuleResult[] }> {
+    // Adding a rule points it at this run's engine; runs that overlap point it at engines made
+    // alike (the same operators and shared conditions), so a rule evaluates the same in either.
+    const engine = newEngine(this.base);
+    for (const { rule, screen } of this.rules) if (!screened || !screen || !fails(screen, facts)) engine.addRule(rule);
+    // A fact given as a value is cached under a hash of its id, a cache never read for a
+    // constant: the same fact without it costs no hashing.
+    const constants: Record<string, Fact> = {};
+    for (const id of Object.keys(facts)) constants[id] = new Fact(id, facts[id], { cache: false });
+    return engine.run(constants);
+  }
+}
+
+/** Whether a screen shows its condition false on these facts. */
+function fails(screen: Screen, facts: Facts): boolean {
+  if ('all' in screen) {
+    for (const x of screen.all) if (fails(x, facts)) return true;
+    return false;
+  }
+  if ('any' in screen) {
+    for (const x of screen.any) if (!fails(x, facts)) return false;
+    return true;
+  }
+  const value = screen.valueFact ? factValue(facts, screen.valueFact) : screen.value;
+  return !screen.operator.evaluate(factValue(facts, screen.compare), value);
+}
+
+/** A fact as json-rules-engine's almanac reads it for a condition: the value, then its path if it is an object (readPath, "$.a.b" included). */
+function factValue(facts: Facts, ref: FactRef): unknown {
+  const value = Object.hasOwn(facts, ref.fact) ? facts[ref.fact] : undefined;
+  if (ref.property === undefined || value === null || typeof value !== 'object') return value;
+  return readPath(value, `$.${ref.property}`);
+}
+
+/** Builds the rule sets for a rule base once; each job gets fresh runs with its own facts. */
 export function buildEngine(base: RuleBase): RuleEngines {
-  const derive = newEngine(base);
-  const judge = newEngine(base);
+  const derive: RuleProperties[] = [];
+  const judge: RuleProperties[] = [];
   for (const { rule } of base.rules) {
-    (rule.kind === 'derive' ? derive : judge).addRule({ name: rule.name, priority: 1, conditions: topLevel(rule.conditions), event: { type: rule.kind } });
+    (rule.kind === 'derive' ? derive : judge).push({ name: rule.name, priority: 1, conditions: topLevel(rule.conditions), event: { type: rule.kind } });
   }
   // A question's askWhen is a rule of its own, so the engine decides it along with the rest.
   for (const q of base.questions) {
-    if (q.askWhen) judge.addRule({ name: `${ASK_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askWhen), event: { type: 'askable' } });
-    if (q.askFirstWhen) judge.addRule({ name: `${ASK_FIRST_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askFirstWhen), event: { type: 'ask-first' } });
+    if (q.askWhen) judge.push({ name: `${ASK_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askWhen), event: { type: 'askable' } });
+    if (q.askFirstWhen) judge.push({ name: `${ASK_FIRST_PREFIX}${q.id}`, priority: 1, conditions: topLevel(q.askFirstWhen), event: { type: 'ask-first' } });
   }
   // So are a check's safety conditions: when it is unsafe, and which conditional hazards apply.
   for (const c of base.checks) {
-    if (c.unsafeWhen) judge.addRule({ name: `${UNSAFE_PREFIX}${c.id}`, priority: 1, conditions: topLevel(c.unsafeWhen.condition), event: { type: 'unsafe' } });
-    c.cautions?.forEach((caution, k) => judge.addRule({ name: `${CAUTION_PREFIX}${c.id}:${k}`, priority: 1, conditions: topLevel(caution.when), event: { type: 'caution' } }));
+    if (c.unsafeWhen) judge.push({ name: `${UNSAFE_PREFIX}${c.id}`, priority: 1, conditions: topLevel(c.unsafeWhen.condition), event: { type: 'unsafe' } });
+    c.cautions?.forEach((caution, k) => judge.push({ name: `${CAUTION_PREFIX}${c.id}:${k}`, priority: 1, conditions: topLevel(caution.when), event: { type: 'caution' } }));
   }
-  return { derive, judge };
+  return { derive: new ScreenedRules(base, derive), judge: new ScreenedRules(base, judge), byName: new Map(base.rules.map(({ rule }) => [rule.name, rule])) };
 }
 
 function topLevel(c: Condition): TopLevelCondition {
@@ -97,10 +216,9 @@ function topLevel(c: Condition): TopLevelCondition {
 }
 
 export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start: Facts): Promise<RunOutcome> {
-  const limit = base.rules.filter((r) => r.rule.kind === 'derive').length + 2;
-  const byName = new Map(base.rules.map(({ rule }) => [rule.name, rule]));
+  const limit = engines.derive.size + 2;
+  const byName = engines.byName;
   const firedOf = (results: RuleResult[]): Fired[] =>
-    // Rule names are unique in a loaded rule base (the loader checks it).
     results.filter((r) => byName.has(String(r.name))).map((r) => ({ rule: byName.get(String(r.name))!, tree: r.toJSON(false).conditions }));
   let facts = { ...start };
   let derived: Fired[] = [];

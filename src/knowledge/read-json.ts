@@ -32,7 +32,7 @@ export function readJsonFile(file: string): Result<{ text: string; value: unknow
   let text: string;
   try {
     // The size stat gives is not trusted: /proc files report 0 and never end. At most one byte over the limit is read.
-    const bytes = readAtMost(file, MAX_FILE_BYTES + 1);
+    const bytes = readAtMost(file, MAX_FILE_BYTES + 1, size);
     if (bytes.length > MAX_FILE_BYTES) return failed({ code: 'too-large', file, path: '', message: `file is over ${MAX_FILE_BYTES} bytes; data files are limited to ${MAX_FILE_BYTES} bytes (1 MiB)` });
     text = bytes.toString('utf8');
   } catch (e) {
@@ -64,14 +64,22 @@ export function duplicateKeyIssue(file: string, text: string): Issue | undefined
   return twice ? { code: 'not-json', file, path: twice.path, message: `the key ${quote(twice.key)} appears twice in one object: only one can count, so the file is refused` } : undefined;
 }
 
-/** Reads until the end or until more than `limit` bytes are in, in 64 KiB pieces (some /proc files take only aligned reads). */
-function readAtMost(file: string, limit: number): Buffer {
+/**
+ * Reads until the end or until more than `limit` bytes are in, in 64 KiB pieces (some /proc files
+ * take only aligned reads), into a buffer sized by what stat said and grown if the file holds more.
+ */
+function readAtMost(file: string, limit: number, size: number): Buffer {
   const fd = openSync(file, 'r');
   try {
     const piece = 64 * 1024;
-    const buffer = Buffer.alloc(limit + piece);
+    let buffer = Buffer.allocUnsafe(Math.min(size, limit) + piece);
     let got = 0;
     while (got <= limit) {
+      if (got + piece > buffer.length) {
+        const bigger = Buffer.allocUnsafe(Math.min(limit + piece, Math.max(2 * buffer.length, got + piece)));
+        buffer.copy(bigger, 0, 0, got);
+        buffer = bigger;
+      }
       const n = readSync(fd, buffer, got, piece, null);
       if (n === 0) break;
       got += n;

@@ -8,6 +8,7 @@ import { availableParallelism } from 'node:os';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import { dirname } from 'node:path';
 import { CaseIssues, CaseTally, checkCases, loopReplayer, rankCaseFile, sameCause, wholeCaseRunner, type CaseCheckReport, type CaseRank, type CaseStream, type SkippedCase } from '../engine/check-cases.js';
+import { buildEngine } from '../engine/run-rules.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import { ok, type Issue, type Result } from '../knowledge/result.js';
 
@@ -39,8 +40,9 @@ export function runCaseCheckWorker(job: { rules: string }, loadRules: (dir: stri
     port.postMessage({ failed: `${job.rules}: the rule folder did not load in a worker` } satisfies FromWorker);
     return Promise.resolve();
   }
-  const run = wholeCaseRunner(base.value);
-  const replay = loopReplayer(base.value);
+  const engine = buildEngine(base.value);
+  const run = wholeCaseRunner(base.value, engine);
+  const replay = loopReplayer(base.value, engine);
   const same = sameCause(base.value);
   const causeIds = new Set(base.value.causes.map((c) => c.id));
   return new Promise((resolve) => {
@@ -97,8 +99,9 @@ export async function checkCasesInParallel(files: string[], base: RuleBase, rule
       const workHere = async () => {
         if (working) return;
         working = true;
-        const here = wholeCaseRunner(base);
-        const replayHere = loopReplayer(base);
+        const engineHere = buildEngine(base);
+        const here = wholeCaseRunner(base, engineHere);
+        const replayHere = loopReplayer(base, engineHere);
         const sameHere = sameCause(base);
         const causeIds = new Set(base.causes.map((c) => c.id));
         for (let batch = pending.shift(); batch !== undefined; batch = pending.shift()) {

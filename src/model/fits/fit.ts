@@ -136,23 +136,36 @@ export function predict(b: FitBasis, w: World, ia: number, noLoadIa = 0.05 * b.r
   };
 }
 
-function residualsOf(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number = FIT_READINGS.speed.tolerance): Residual[] {
-  const out: Residual[] = [];
+/** Each reading's residual under a prediction, in a fixed order: speed, uncoupled speed, field current, terminal voltage, supply voltage. */
+function eachResidual(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number, visit: (reading: FitReading, predicted: number, measured: number, share: number, z: number) => void): void {
   const add = (reading: FitReading, predicted: number, measured: number | undefined, scale: number) => {
     if (measured === undefined || !(scale > 0)) return;
     const share = Number.isFinite(predicted) ? (predicted - measured) / scale : 10;
-    out.push({ reading, predicted, measured, share, z: share / (reading === 'speed' || reading === 'uncoupledSpeed' ? speedTolerance : FIT_READINGS[reading].tolerance) });
+    visit(reading, predicted, measured, share, share / (reading === 'speed' || reading === 'uncoupledSpeed' ? speedTolerance : FIT_READINGS[reading].tolerance));
   };
   if (r.speed !== undefined && r.speed > 0) add('speed', p.speed, r.speed, r.speed);
   // Run uncoupled on a fixed supply, the machine shows its constants at a second point; a converter would hold its reference.
-  if (r.uncoupledSpeed !== undefined && r.uncoupledSpeed > 0 && !b.voltageFree) add('uncoupledSpeed', p.uncoupledSpeed, r.uncoupledSpeed, r.uncoupledSpeed);
+  if (usesUncoupled(b, r)) add('uncoupledSpeed', p.uncoupledSpeed, r.uncoupledSpeed, r.uncoupledSpeed!);
   if (b.shuntField && p.fieldCurrent !== undefined) add('fieldCurrent', p.fieldCurrent, r.fieldCurrent, b.ratedFieldAmps!);
   add('armatureVoltage', p.armatureVoltage, r.armatureVoltage, b.ratedVolts);
   if (!b.voltageFree) add('supplyVoltage', p.supplyVoltage, r.supplyVoltage, b.ratedVolts);
+}
+
+const usesUncoupled = (b: FitBasis, r: Readings) => r.uncoupledSpeed !== undefined && r.uncoupledSpeed > 0 && !b.voltageFree;
+
+function residualsOf(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number = FIT_READINGS.speed.tolerance): Residual[] {
+  const out: Residual[] = [];
+  eachResidual(b, r, p, speedTolerance, (reading, predicted, measured, share, z) => out.push({ reading, predicted, measured, share, z }));
   return out;
 }
 
-const sumSquares = (rs: Residual[]) => rs.reduce((s, x) => s + x.z * x.z, 0);
+/** The sum of squared residuals (in tolerances) that a fit minimises: the sum residualsOf's list would give, without building it. */
+function misfit(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number): number {
+  let sum = 0;
+  eachResidual(b, r, p, speedTolerance, (_reading, _predicted, _measured, _share, z) => (sum += z * z));
+  return sum;
+}
+
 const worst = (rs: Residual[], key: 'z' | 'share') => rs.reduce((m, x) => Math.max(m, Math.abs(x[key])), 0);
 
 /** A one-parameter least-squares minimum: a grid for the bracket, then golden-section search. */
@@ -231,7 +244,7 @@ export function fitReadings(machine: ModelMachine, given: Readings): FitReport |
     }
     const [lo, hi] = h.search(b, r);
     const at = (x: number) => predict(b, h.world!(x, neutral), ia, noLoadIa);
-    const value = minimise((x) => sumSquares(residuals(at(x))), lo, hi);
+    const value = minimise((x) => misfit(b, r, at(x), speedTolerance), lo, hi);
     const prediction = at(value);
     const rs = residuals(prediction);
     // The load this fault would leave on the shaft: beyond rating, the current is not explained.

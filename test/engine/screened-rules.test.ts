@@ -1,0 +1,63 @@
+/**
+ * The screen that leaves rules out of a run (src/engine/run-rules.ts) leaves out only rules the
+ * engine would have failed: on every recorded case, and on each case after each of its worked
+ * checks, the rules that fire with the screen are those that fire without it, with the same
+ * condition trees (the explanations are built from them).
+ */
+import { readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import type { RuleResult } from 'json-rules-engine';
+import { jobFacts } from '../../src/engine/facts.js';
+import { buildEngine, runToFixpoint, type ScreenedRules } from '../../src/engine/run-rules.js';
+import { analyseTests } from '../../src/engine/series-analyses.js';
+import type { CaseFile } from '../../src/knowledge/case-schema.js';
+import { loadCase } from '../../src/knowledge/load-case.js';
+import { computeExpectations } from '../../src/model/expected.js';
+import { builtInRules, CASES_DIR } from '../support/rules.js';
+
+const base = builtInRules();
+const engine = buildEngine(base);
+
+const fired = (results: RuleResult[]) => results.map((r) => ({ name: String(r.name), tree: r.toJSON(false).conditions })).sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
+
+/** The job with a prefix of its worked checks' readings and observations laid over its own. */
+function jobs(c: CaseFile): CaseFile[] {
+  const out: CaseFile[] = [{ ...c, checks: [] }];
+  let job = { ...c, checks: [] };
+  for (const w of c.checks ?? []) {
+    job = { ...job, readings: { ...job.readings, ...w.readings }, observations: { ...job.observations, ...w.observations } };
+    out.push(job);
+  }
+  return out;
+}
+
+async function sameWithAndWithout(rules: ScreenedRules, facts: Record<string, unknown>): Promise<number> {
+  const screened = fired((await rules.run(facts)).results);
+  expect(screened).toEqual(fired((await rules.runAll(facts)).results));
+  return screened.length;
+}
+
+describe('the screened rule runs', () => {
+  const files = readdirSync(CASES_DIR).filter((f) => f.endsWith('.json'));
+
+  it('fire what the whole rule base fires, on every recorded case and after each worked check', async () => {
+    let runs = 0;
+    let firing = 0;
+    for (const file of files) {
+      const c = loadCase(join(CASES_DIR, file));
+      if (!c.ok) throw new Error(file);
+      for (const job of jobs(c.value)) {
+        const expectation = computeExpectations({ machine: job.machine, readings: job.readings ?? {} });
+        const start = jobFacts(job, expectation, analyseTests(job));
+        const settled = (await runToFixpoint(engine, base, start)).facts;
+        firing += await sameWithAndWithout(engine.derive, start);
+        firing += await sameWithAndWithout(engine.judge, settled);
+        runs += 2;
+      }
+    }
+    // Enough runs, and enough rules firing in them, that the comparison means something.
+    expect(runs).toBeGreaterThanOrEqual(2 * files.length);
+    expect(firing).toBeGreaterThan(20 * files.length);
+  });
+});
