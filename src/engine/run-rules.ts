@@ -53,8 +53,20 @@ export interface RuleEngines {
 
 /** "$.a" or "$.a.b": own properties only, walked one name at a time. */
 function readPath(value: unknown, path: string): unknown {
+  return readNames(value, namesOf(path));
+}
+
+/** A path's names, split once per distinct path (a rule base has a few hundred). */
+const pathNames = new Map<string, readonly string[]>();
+function namesOf(path: string): readonly string[] {
+  let names = pathNames.get(path);
+  if (!names) pathNames.set(path, (names = path.slice(2).split('.')));
+  return names;
+}
+
+function readNames(value: unknown, names: readonly string[]): unknown {
   let at = value;
-  for (const name of path.slice(2).split('.')) {
+  for (const name of names) {
     if (at === null || typeof at !== 'object' || !Object.hasOwn(at, name)) return undefined;
     at = (at as Record<string, unknown>)[name];
   }
@@ -70,6 +82,8 @@ interface Judging {
 interface FactRef {
   fact: string;
   property: string | undefined;
+  /** The property's names, "$.a.b" as ["a", "b"]. */
+  names?: readonly string[] | undefined;
 }
 
 /**
@@ -138,11 +152,11 @@ export class ScreenedRules {
     if ('not' in c) return undefined;
     const operator = this.operators.get(c.operator);
     if (!operator) return undefined;
-    const compare = { fact: c.fact, property: c.path?.slice(2) };
+    const compare = { fact: c.fact, property: c.path?.slice(2), names: c.path ? namesOf(c.path) : undefined };
     const value: unknown = c.value;
     if (value !== null && typeof value === 'object' && !Array.isArray(value)) {
       const other = value as { fact: string; path?: string | undefined };
-      return { compare, operator, value, valueFact: { fact: other.fact, property: other.path?.slice(2) } };
+      return { compare, operator, value, valueFact: { fact: other.fact, property: other.path?.slice(2), names: other.path ? namesOf(other.path) : undefined } };
     }
     return { compare, operator, value };
   }
@@ -188,7 +202,7 @@ function fails(screen: Screen, facts: Facts): boolean {
 function factValue(facts: Facts, ref: FactRef): unknown {
   const value = Object.hasOwn(facts, ref.fact) ? facts[ref.fact] : undefined;
   if (ref.property === undefined || value === null || typeof value !== 'object') return value;
-  return readPath(value, `$.${ref.property}`);
+  return readNames(value, ref.names!);
 }
 
 /** Builds the rule sets for a rule base once; each job gets fresh runs with its own facts. */
