@@ -84,8 +84,15 @@ export function ratedPoint(ctx: ModelContext): void {
     if (!traits.fieldAcrossTerminals) ratedIa = np.lineCurrent;
     else if (d.ratedFieldCurrent !== undefined) ratedIa = np.lineCurrent - d.ratedFieldCurrent;
   }
+  let inputCurrent = np.lineCurrent ?? (ratedIa !== undefined ? ratedIa + (traits.fieldAcrossTerminals ? d.ratedFieldCurrent ?? 0 : 0) : undefined);
+  if (ratedIa === undefined && inputCurrent === undefined && np.power !== undefined && np.armatureVoltage !== undefined && np.armatureVoltage > 0) {
+    // A plate (or a book) giving output, voltage and speed but no current: the current the usual efficiency means.
+    const efficiency = typicalEfficiency(np.power / typicalEfficiency(np.power));
+    inputCurrent = np.power / efficiency / np.armatureVoltage;
+    ratedIa = Math.max(0, inputCurrent - (traits.fieldAcrossTerminals ? d.ratedFieldCurrent ?? 0 : 0));
+    assume(ctx, `rated armature current taken as ${fmt(ratedIa, 'A')}: no current on the plate, so the ${fmt(np.power, 'W')} output at the efficiency usual for its size (${Math.round(efficiency * 100)} %, from memory)`);
+  }
   if (ratedIa !== undefined) d.ratedIa = ratedIa;
-  const inputCurrent = np.lineCurrent ?? (ratedIa !== undefined ? ratedIa + (traits.fieldAcrossTerminals ? d.ratedFieldCurrent ?? 0 : 0) : undefined);
   const raWarm = warmResistance(ctx, res.armature);
   const rseWarm = warmResistance(ctx, res.seriesField);
   if (raWarm !== undefined && (!traits.seriesField || rseWarm !== undefined)) {
