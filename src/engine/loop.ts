@@ -131,28 +131,15 @@ function entropy(p: Iterable<number>): number {
  * false-alarm rate, so that the expected removal is never negative.
  */
 export function checkValue(check: Check, shown: readonly string[], scores: ReadonlyMap<string, number>): number {
-  // The fault may be none of the causes in play: that share keeps a check that could clear them all worth doing.
-  const p = new Map([...beliefs(scores)].map(([c, x]) => [c, x * (1 - UNLISTED_SHARE)] as const));
-  p.set(UNLISTED, UNLISTED_SHARE);
   const inShown = shown.filter((c) => scores.has(c));
   if (inShown.length === 0) return 0;
-  const likelihood = (c: string, result: 'normal' | 'abnormal') => {
-    const a = inShown.includes(c) ? sensitivity(check, c) : FALSE_ALARM;
-    return result === 'abnormal' ? a : 1 - a;
-  };
-  const posterior = (result: 'normal' | 'abnormal') => {
-    const joint = [...p].map(([c, x]) => x * likelihood(c, result));
-    const total = joint.reduce((t, x) => t + x, 0);
-    return { chance: total, entropy: total > 0 ? entropy(joint.map((x) => x / total)) : 0 };
-  };
-  const abnormal = posterior('abnormal');
-  const normal = posterior('normal');
-  const h = entropy(p.values());
-  const removed = h > 0 ? Math.max(0, (h - abnormal.chance * abnormal.entropy - normal.chance * normal.entropy) / h) : 0;
+  // Outcome 0 abnormal, 1 normal.
+  const abnormalUnder = (c: string) => (inShown.includes(c) ? sensitivity(check, c) : FALSE_ALARM);
+  const { removed, chances } = uncertaintyRemoved(scores, 2, (c, k) => (k === 0 ? abnormalUnder(c) : 1 - abnormalUnder(c)));
   // What a real abnormal result would do to the scores, and whether that confirms a cause.
   const after = resultEvidence([{ id: check.id, result: 'abnormal' }], new Map([[check.id, check]]), new Map([[check.id, inShown]]), scores);
   const scoreAfter = (c: string) => (after.get(c) ?? []).reduce((v, e) => combine(v, e.weight), scores.get(c) ?? 0);
-  const settles = confirmedBy(inShown, scoreAfter) !== undefined ? abnormal.chance : 0;
+  const settles = confirmedBy(inShown, scoreAfter) !== undefined ? chances[0]! : 0;
   return (settles + INFORMATION_WEIGHT * removed) / check.minutes;
 }
 
@@ -162,18 +149,29 @@ export function checkValue(check: Check, shown: readonly string[], scores: Reado
  * the uncertainty between their causes. Half the share of the uncertainty it is expected to
  * remove, per minute, as for any other check. `likelihoods`: per cause, the chance of each outcome.
  */
-export function separationValue(check: Check, likelihoods: ReadonlyMap<string, readonly number[]> | undefined, scores: ReadonlyMap<string, number>): number {
-  if (!likelihoods) return 0;
+export function separationValue(check: Check, likelihoods: ReadonlyMap<string, readonly number[]>, scores: ReadonlyMap<string, number>): number {
+  const outcomes = [...likelihoods.values()][0]?.length ?? 0;
+  const { removed } = uncertaintyRemoved(scores, outcomes, (c, k) => likelihoods.get(c)?.[k] ?? 1 / outcomes);
+  return (INFORMATION_WEIGHT * removed) / check.minutes;
+}
+
+/**
+ * The share of the uncertainty (entropy over the causes in play, plus the share that it is none
+ * of them) a result is expected to remove, by Bayes' rule with `likelihood(cause, outcome)`; and
+ * the chance of each outcome. Never negative.
+ */
+function uncertaintyRemoved(scores: ReadonlyMap<string, number>, outcomes: number, likelihood: (cause: string, outcome: number) => number): { removed: number; chances: number[] } {
+  // The fault may be none of the causes in play: that share keeps a check that could clear them all worth doing.
   const p = new Map([...beliefs(scores)].map(([c, x]) => [c, x * (1 - UNLISTED_SHARE)] as const));
   p.set(UNLISTED, UNLISTED_SHARE);
-  const outcomes = [...likelihoods.values()][0]?.length ?? 0;
   const h = entropy(p.values());
+  const chances: number[] = [];
   let after = 0;
   for (let k = 0; k < outcomes; k++) {
-    const joint = [...p].map(([c, x]) => x * (likelihoods.get(c)?.[k] ?? 1 / outcomes));
+    const joint = [...p].map(([c, x]) => x * likelihood(c, k));
     const total = joint.reduce((t, x) => t + x, 0);
+    chances.push(total);
     if (total > 0) after += total * entropy(joint.map((x) => x / total));
   }
-  const removed = h > 0 ? Math.max(0, (h - after) / h) : 0;
-  return (INFORMATION_WEIGHT * removed) / check.minutes;
+  return { removed: h > 0 ? Math.max(0, (h - after) / h) : 0, chances };
 }

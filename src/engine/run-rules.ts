@@ -78,13 +78,13 @@ interface Judging {
   evaluate(factValue: unknown, value: unknown): boolean;
 }
 
-/** A fact as a condition names it: the fact, and the property its path ("$.name", "$.name.field") reads, if any. */
+/** A fact as a condition names it: the fact, and the names its path reads ("$.a.b" as ["a", "b"]), if it has one. */
 interface FactRef {
   fact: string;
-  property: string | undefined;
-  /** The property's names, "$.a.b" as ["a", "b"]. */
-  names?: readonly string[] | undefined;
+  names: readonly string[] | undefined;
 }
+
+const factRef = (fact: string, path: string | undefined): FactRef => ({ fact, names: path ? namesOf(path) : undefined });
 
 /**
  * The part of a condition the screen can judge before a run: comparisons of a fact with a
@@ -152,11 +152,11 @@ export class ScreenedRules {
     if ('not' in c) return undefined;
     const operator = this.operators.get(c.operator);
     if (!operator) return undefined;
-    const compare = { fact: c.fact, property: c.path?.slice(2), names: c.path ? namesOf(c.path) : undefined };
+    const compare = factRef(c.fact, c.path);
     const value: unknown = c.value;
     if (value !== null && typeof value === 'object' && !Array.isArray(value)) {
       const other = value as { fact: string; path?: string | undefined };
-      return { compare, operator, value, valueFact: { fact: other.fact, property: other.path?.slice(2), names: other.path ? namesOf(other.path) : undefined } };
+      return { compare, operator, value, valueFact: factRef(other.fact, other.path) };
     }
     return { compare, operator, value };
   }
@@ -201,8 +201,8 @@ function fails(screen: Screen, facts: Facts): boolean {
 /** A fact as json-rules-engine's almanac reads it for a condition: the value, then its path if it is an object (readPath, "$.a.b" included). */
 function factValue(facts: Facts, ref: FactRef): unknown {
   const value = Object.hasOwn(facts, ref.fact) ? facts[ref.fact] : undefined;
-  if (ref.property === undefined || value === null || typeof value !== 'object') return value;
-  return readNames(value, ref.names!);
+  if (ref.names === undefined || value === null || typeof value !== 'object') return value;
+  return readNames(value, ref.names);
 }
 
 /** Builds the rule sets for a rule base once; each job gets fresh runs with its own facts. */
