@@ -58,18 +58,18 @@ for (const name of readdirSync(dir).filter((f) => f.endsWith('.json')).sort()) {
 tally('recorded cases, readings only', recorded);
 console.log(`  (${skipped.length} more have no running operating point to fit: ${skipped.join(', ')})`);
 
-const generated = [];
-for (const g of generatedFaultCases({ seed: 20261202, count: Number(process.env.GENERATED ?? 300) })) {
-  const job: JobInput = { machine: { ...g.job.machine, magnetization: undefined }, readings: g.job.readings };
-  generated.push({ id: g.label, cause: g.cause, ...(await rankOf(job, g.cause)) });
+/** The generated cases ranked from their readings, the machine as `given` leaves it. */
+async function rankGenerated(given: (m: JobInput['machine']) => JobInput['machine']) {
+  const out = [];
+  for (const g of generatedFaultCases({ seed: 20261202, count: Number(process.env.GENERATED ?? 300) })) {
+    const job: JobInput = { machine: given({ ...g.job.machine, magnetization: undefined }), readings: g.job.readings };
+    out.push({ id: g.label, cause: g.cause, ...(await rankOf(job, g.cause)) });
+  }
+  return out;
 }
+const generated = await rankGenerated((m) => m);
 tally('generated cases, readings only (±2 % noise)', generated);
-const plateOnly = [];
-for (const g of generatedFaultCases({ seed: 20261202, count: Number(process.env.GENERATED ?? 300) })) {
-  const job: JobInput = { machine: { ...g.job.machine, magnetization: undefined, resistances: undefined }, readings: g.job.readings };
-  plateOnly.push({ id: g.label, cause: g.cause, ...(await rankOf(job, g.cause)) });
-}
-tally('the same, from the plate alone (no winding resistances)', plateOnly);
+tally('the same, from the plate alone (no winding resistances)', await rankGenerated((m) => ({ ...m, resistances: undefined })));
 const byCause = new Map<string, typeof generated>();
 for (const g of generated) byCause.set(g.cause, [...(byCause.get(g.cause) ?? []), g]);
 for (const [cause, list] of [...byCause].sort()) tally(`  ${cause}`, list);
