@@ -99,56 +99,82 @@ export function neutralWorld(b: FitBasis, r: Readings): World {
   };
 }
 
-/** The machine equations under one world at armature current `ia` (and at the current it draws uncoupled). */
-export function predict(b: FitBasis, w: World, ia: number, noLoadIa = 0.05 * b.ratedAmps): Prediction {
+/**
+ * The machine equations under one world at armature current `ia` (and at the current it draws
+ * uncoupled, unless `uncoupled` is false: a search whose readings hold no uncoupled speed skips
+ * that second point, and its prediction says NaN).
+ */
+export function predict(b: FitBasis, w: World, ia: number, noLoadIa = 0.05 * b.ratedAmps, uncoupled = true): Prediction {
+  return predictInto({ armatureVoltage: 0, supplyVoltage: 0, fieldCurrent: undefined, speed: 0, torquePu: 0, uncoupledSpeed: 0 }, b, w, ia, noLoadIa, uncoupled);
+}
+
+/** One operating state, written in place: a search evaluates thousands and keeps none. */
+interface State {
+  terminal: number;
+  field: number | undefined;
+  phi: number;
+  speed: number;
+}
+const scratchState: State = { terminal: 0, field: undefined, phi: 0, speed: 0 };
+
+/** predict, written into `into`: a search reuses one prediction rather than make one per value it tries. */
+function predictInto(into: Prediction, b: FitBasis, w: World, ia: number, noLoadIa: number, uncoupled: boolean): Prediction {
+  const loaded = stateAt(scratchState, b, w, ia);
+  into.armatureVoltage = loaded.terminal;
+  into.supplyVoltage = w.sourceVolts;
+  into.fieldCurrent = loaded.field;
+  into.speed = loaded.speed;
+  into.torquePu = (loaded.phi * ia) / b.ratedAmps;
+  into.uncoupledSpeed = uncoupled ? stateAt(scratchState, b, w, noLoadIa).speed : Number.NaN;
+  return into;
+}
+
+/** Terminal voltage, field current and speed at one armature current: the cable drop, and a shunt field fed from the terminals, follow the current. */
+function stateAt(out: State, b: FitBasis, w: World, amps: number): State {
+  const terminal = w.sourceVolts - amps * w.cableOhms;
+  let field: number | undefined;
+  let fieldPu = 0;
+  if (b.shuntField) {
+    const supplied = b.healthyFieldAt(terminal) * w.fieldFactor;
+    // A regulator holds the current, so shorted turns cost ampere-turns; a voltage-fed field
+    // draws more current through fewer turns, so its ampere-turns barely change.
+    field = b.fieldRegulated ? supplied : supplied / Math.max(1e-6, 1 - w.turnsShorted);
+    fieldPu = field / b.ratedFieldAmps!;
+  }
+  const armaturePu = amps / b.ratedAmps;
   // Shorted turns sit in one coil: that pole loses its share of the turns while the others
   // carry the (higher) current in full, and saturation keeps them from making up the loss.
   const faultyPoleTurns = 1 - Math.min(1, POLES * w.turnsShorted);
-  /** Terminal voltage, field current and speed at one armature current: the cable drop, and a shunt field fed from the terminals, follow the current. */
-  const stateAt = (amps: number) => {
-    const terminal = w.sourceVolts - amps * w.cableOhms;
-    let field: number | undefined;
-    let fieldPu = 0;
-    if (b.shuntField) {
-      const supplied = b.healthyFieldAt(terminal) * w.fieldFactor;
-      // A regulator holds the current, so shorted turns cost ampere-turns; a voltage-fed field
-      // draws more current through fewer turns, so its ampere-turns barely change.
-      field = b.fieldRegulated ? supplied : supplied / Math.max(1e-6, 1 - w.turnsShorted);
-      fieldPu = field / b.ratedFieldAmps!;
-    }
-    const armaturePu = amps / b.ratedAmps;
-    const phi =
-      w.fluxFactor *
-      (w.turnsShorted === 0
-        ? b.flux(fieldPu, armaturePu, w.seriesFactor)
-        : ((POLES - 1) * b.flux(fieldPu, armaturePu, w.seriesFactor) + b.flux(fieldPu * faultyPoleTurns, armaturePu, w.seriesFactor)) / POLES);
-    const e = terminal - amps * (b.circuitOhms + w.extraOhms) - (amps > 0 ? b.brushDrop : 0);
-    return { terminal, field, phi, speed: phi > 1e-6 ? radSToRpm(e / (b.kPhiRated * phi)) : Number.POSITIVE_INFINITY };
-  };
-  const loaded = stateAt(ia);
-  return {
-    armatureVoltage: loaded.terminal,
-    supplyVoltage: w.sourceVolts,
-    fieldCurrent: loaded.field,
-    speed: loaded.speed,
-    torquePu: (loaded.phi * ia) / b.ratedAmps,
-    uncoupledSpeed: stateAt(noLoadIa).speed,
-  };
+  const phi =
+    w.fluxFactor *
+    (w.turnsShorted === 0
+      ? b.flux(fieldPu, armaturePu, w.seriesFactor)
+      : ((POLES - 1) * b.flux(fieldPu, armaturePu, w.seriesFactor) + b.flux(fieldPu * faultyPoleTurns, armaturePu, w.seriesFactor)) / POLES);
+  const e = terminal - amps * (b.circuitOhms + w.extraOhms) - (amps > 0 ? b.brushDrop : 0);
+  out.terminal = terminal;
+  out.field = field;
+  out.phi = phi;
+  out.speed = phi > 1e-6 ? radSToRpm(e / (b.kPhiRated * phi)) : Number.POSITIVE_INFINITY;
+  return out;
 }
 
+type Visit = (reading: FitReading, predicted: number, measured: number, share: number, z: number) => void;
+
 /** Each reading's residual under a prediction, in a fixed order: speed, uncoupled speed, field current, terminal voltage, supply voltage. */
-function eachResidual(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number, visit: (reading: FitReading, predicted: number, measured: number, share: number, z: number) => void): void {
-  const add = (reading: FitReading, predicted: number, measured: number | undefined, scale: number) => {
-    if (measured === undefined || !(scale > 0)) return;
-    const share = Number.isFinite(predicted) ? (predicted - measured) / scale : 10;
-    visit(reading, predicted, measured, share, share / (reading === 'speed' || reading === 'uncoupledSpeed' ? speedTolerance : FIT_READINGS[reading].tolerance));
-  };
-  if (r.speed !== undefined && r.speed > 0) add('speed', p.speed, r.speed, r.speed);
+function eachResidual(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number, visit: Visit): void {
+  if (r.speed !== undefined && r.speed > 0) residual(visit, speedTolerance, 'speed', p.speed, r.speed, r.speed);
   // Run uncoupled on a fixed supply, the machine shows its constants at a second point; a converter would hold its reference.
-  if (usesUncoupled(b, r)) add('uncoupledSpeed', p.uncoupledSpeed, r.uncoupledSpeed, r.uncoupledSpeed!);
-  if (b.shuntField && p.fieldCurrent !== undefined) add('fieldCurrent', p.fieldCurrent, r.fieldCurrent, b.ratedFieldAmps!);
-  add('armatureVoltage', p.armatureVoltage, r.armatureVoltage, b.ratedVolts);
-  if (!b.voltageFree) add('supplyVoltage', p.supplyVoltage, r.supplyVoltage, b.ratedVolts);
+  if (usesUncoupled(b, r)) residual(visit, speedTolerance, 'uncoupledSpeed', p.uncoupledSpeed, r.uncoupledSpeed, r.uncoupledSpeed!);
+  if (b.shuntField && p.fieldCurrent !== undefined) residual(visit, speedTolerance, 'fieldCurrent', p.fieldCurrent, r.fieldCurrent, b.ratedFieldAmps!);
+  residual(visit, speedTolerance, 'armatureVoltage', p.armatureVoltage, r.armatureVoltage, b.ratedVolts);
+  if (!b.voltageFree) residual(visit, speedTolerance, 'supplyVoltage', p.supplyVoltage, r.supplyVoltage, b.ratedVolts);
+}
+
+/** One reading's residual, as a share of its scale and in its tolerances, to the visitor (none when it was not read). */
+function residual(visit: Visit, speedTolerance: number, reading: FitReading, predicted: number, measured: number | undefined, scale: number): void {
+  if (measured === undefined || !(scale > 0)) return;
+  const share = Number.isFinite(predicted) ? (predicted - measured) / scale : 10;
+  visit(reading, predicted, measured, share, share / (reading === 'speed' || reading === 'uncoupledSpeed' ? speedTolerance : FIT_READINGS[reading].tolerance));
 }
 
 const usesUncoupled = (b: FitBasis, r: Readings) => r.uncoupledSpeed !== undefined && r.uncoupledSpeed > 0 && !b.voltageFree;
@@ -159,11 +185,17 @@ function residualsOf(b: FitBasis, r: Readings, p: Prediction, speedTolerance: nu
   return out;
 }
 
+/** The running sum misfit's visitor adds to: one function for every call, so a search allocates no closure per value. */
+let squares = 0;
+const addSquare: Visit = (_reading, _predicted, _measured, _share, z) => {
+  squares += z * z;
+};
+
 /** The sum of squared residuals (in tolerances) that a fit minimises: the sum residualsOf's list would give, without building it. */
 function misfit(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number): number {
-  let sum = 0;
-  eachResidual(b, r, p, speedTolerance, (_reading, _predicted, _measured, _share, z) => (sum += z * z));
-  return sum;
+  squares = 0;
+  eachResidual(b, r, p, speedTolerance, addSquare);
+  return squares;
 }
 
 const worst = (rs: Residual[], key: 'z' | 'share') => rs.reduce((m, x) => Math.max(m, Math.abs(x[key])), 0);
@@ -232,6 +264,25 @@ export function fitReadings(machine: ModelMachine, given: Readings): FitReport |
   const torquePu = (b.flux(fieldPu, ia / b.ratedAmps) * ia) / b.ratedAmps;
   const healthy = { residuals: healthyResiduals, worstZ: worst(healthyResiduals, 'z'), explains: worst(healthyResiduals, 'z') <= 1, torquePu };
 
+  // The parameter's best value for each world field over each range: hypotheses that differ only
+  // in which values they call that fault (a weak and a strong field) share one search.
+  const searched = new Map<string, number>();
+  const withUncoupled = usesUncoupled(b, r);
+  const bestValue = (acts: keyof World, lo: number, hi: number): number => {
+    const key = `${acts} ${lo} ${hi}`;
+    let value = searched.get(key);
+    if (value === undefined) {
+      const world = { ...neutral };
+      const trial = predict(b, world, ia, noLoadIa, withUncoupled);
+      value = minimise((x) => {
+        world[acts] = x;
+        return misfit(b, r, predictInto(trial, b, world, ia, noLoadIa, withUncoupled), speedTolerance);
+      }, lo, hi);
+      searched.set(key, value);
+    }
+    return value;
+  };
+
   const fits = HYPOTHESES.map((h): HypothesisFit => {
     const base = { id: h.id, kind: h.kind, parameter: h.parameter, unit: h.unit, healthyValue: h.healthy(b) };
     if (!h.applies(b, r)) return { ...base, value: NaN, plausible: false, residuals: [], worstShare: NaN, worstZ: NaN, explains: false, verdict: 'unfit' };
@@ -243,9 +294,8 @@ export function fitReadings(machine: ModelMachine, given: Readings): FitReport |
       return { ...base, value, plausible, residuals: healthyResiduals, worstShare: worst(healthyResiduals, 'share'), worstZ: healthy.worstZ, explains: healthy.explains, verdict, contradictedBy: verdict === 'contradicted' ? worstReading(healthyResiduals) : undefined, prediction: healthyPrediction };
     }
     const [lo, hi] = h.search(b, r);
-    const at = (x: number) => predict(b, h.world!(x, neutral), ia, noLoadIa);
-    const value = minimise((x) => misfit(b, r, at(x), speedTolerance), lo, hi);
-    const prediction = at(value);
+    const value = bestValue(h.acts!, lo, hi);
+    const prediction = predict(b, { ...neutral, [h.acts!]: value }, ia, noLoadIa);
     const rs = residuals(prediction);
     // The load this fault would leave on the shaft: beyond rating, the current is not explained.
     if (prediction.torquePu > LOAD_WITHIN_RATING) {

@@ -41,8 +41,8 @@ export interface Hypothesis {
   plausible: (value: number, b: FitBasis, r: Readings) => boolean;
   /** Whether the hypothesis can exist on this machine and be judged with these readings. */
   applies: (b: FitBasis, r: Readings) => boolean;
-  /** The world under the parameter (machine hypotheses). */
-  world?: (value: number, w: World) => World;
+  /** The field of the world the parameter sets (machine hypotheses). Hypotheses that set the same field over the same range share one search. */
+  acts?: keyof World;
   /** The parameter computed from the readings (load hypotheses). */
   measure?: (b: FitBasis, r: Readings, torquePu: number) => number | undefined;
 }
@@ -61,7 +61,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     search: () => [0, 2],
     plausible: (v) => v >= 0 && v <= 0.94,
     applies: fieldWound,
-    world: (v, w) => ({ ...w, fieldFactor: v }),
+    acts: 'fieldFactor',
   },
   {
     id: 'strongField',
@@ -72,7 +72,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     search: () => [0, 2],
     plausible: (v) => v >= 1.06 && v <= 1.8,
     applies: fieldWound,
-    world: (v, w) => ({ ...w, fieldFactor: v }),
+    acts: 'fieldFactor',
   },
   {
     id: 'fieldTurnsShorted',
@@ -84,7 +84,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     // One coil of four holds a quarter of the turns: more than that is not shorted turns in a coil.
     plausible: (v) => v >= 0.05 && v <= 0.25,
     applies: fieldWound,
-    world: (v, w) => ({ ...w, turnsShorted: v }),
+    acts: 'turnsShorted',
   },
   {
     id: 'extraResistance',
@@ -97,7 +97,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     // beyond 80 % of the terminal voltage dropped in it the machine would barely turn.
     plausible: (v, b, r) => v >= 0.25 * b.circuitOhms && v * (r.armatureCurrent ?? 0) <= 0.8 * b.ratedVolts,
     applies: (_b, r) => (r.armatureCurrent ?? 0) > 0,
-    world: (v, w) => ({ ...w, extraOhms: v }),
+    acts: 'extraOhms',
   },
   {
     id: 'lowSupply',
@@ -108,7 +108,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     search: (b) => [0.2 * b.nominalVolts, 1.8 * b.nominalVolts],
     plausible: (v, b) => v >= 0.3 * b.nominalVolts && v <= 0.94 * b.nominalVolts,
     applies: fixedSupply,
-    world: (v, w) => ({ ...w, sourceVolts: v }),
+    acts: 'sourceVolts',
   },
   {
     id: 'highSupply',
@@ -119,7 +119,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     search: (b) => [0.2 * b.nominalVolts, 1.8 * b.nominalVolts],
     plausible: (v, b) => v >= 1.06 * b.ratedVolts && v <= 1.6 * b.ratedVolts,
     applies: () => true,
-    world: (v, w) => ({ ...w, sourceVolts: v }),
+    acts: 'sourceVolts',
   },
   {
     id: 'cableDrop',
@@ -131,7 +131,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     // A drop of 4 % of the supply is the most a healthy cable run takes (common practice).
     plausible: (v, b, r) => v * (r.armatureCurrent ?? 0) >= 0.04 * b.nominalVolts,
     applies: (b, r) => fixedSupply(b) && r.supplyVoltage !== undefined && (r.armatureCurrent ?? 0) > 0,
-    world: (v, w) => ({ ...w, cableOhms: v }),
+    acts: 'cableOhms',
   },
   {
     id: 'seriesFieldShorted',
@@ -142,7 +142,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     search: (b) => (b.shuntField ? [-1.6, 1.6] : [0.02, 1.6]),
     plausible: (v, b) => (b.shuntField ? v >= -0.25 && v <= 0.75 : v >= 0.1 && v <= 0.85),
     applies: (b) => b.seriesField,
-    world: (v, w) => ({ ...w, seriesFactor: v }),
+    acts: 'seriesFactor',
   },
   {
     id: 'seriesFieldOpposing',
@@ -153,7 +153,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     search: () => [-1.6, 1.6],
     plausible: (v) => v >= -1.6 && v <= -0.25,
     applies: compound,
-    world: (v, w) => ({ ...w, seriesFactor: v }),
+    acts: 'seriesFactor',
   },
   {
     id: 'weakMagnets',
@@ -164,7 +164,7 @@ export const HYPOTHESES: readonly Hypothesis[] = [
     search: () => [0.05, 2],
     plausible: (v) => v >= 0.3 && v <= 0.94,
     applies: (b) => !b.shuntField && !b.seriesField,
-    world: (v, w) => ({ ...w, fluxFactor: v }),
+    acts: 'fluxFactor',
   },
   {
     id: 'overload',
