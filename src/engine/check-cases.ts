@@ -4,7 +4,7 @@ import { loadCaseFile } from '../knowledge/load-case.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import { failedWith, ok, type Issue, type Result } from '../knowledge/result.js';
 import { dirname } from 'node:path';
-import { diagnose } from './diagnose.js';
+import { rankCauses } from './diagnose.js';
 
 /** Case files whose issues are listed; the rest are counted. */
 const FILES_WITH_ISSUES_SHOWN = 20;
@@ -92,7 +92,7 @@ export async function rankCaseFile(file: string, causeIds: ReadonlySet<string>, 
 
 /** The runner that diagnoses a whole case with one engine for all: the rules' own ranking, its recorded checks replayed apart. */
 export function wholeCaseRunner(base: RuleBase, engine: RuleEngines = buildEngine(base)): CaseRunner {
-  return async (c) => ({ ranked: (await diagnose({ ...c, checks: [] }, base, engine)).causes.map((x) => x.id) });
+  return async (c) => ({ ranked: (await rankCauses({ ...c, checks: [] }, base, engine)).causes.map((x) => x.id) });
 }
 
 /**
@@ -113,8 +113,8 @@ export function loopReplayer(base: RuleBase, engine: RuleEngines = buildEngine(b
     let minutes = 0;
     for (let k = 1; k <= checks.length; k++) {
       minutes += minutesOf.get(checks[k - 1]!.id) ?? 0;
-      const d = await diagnose({ ...job, checks: checks.slice(0, k) }, base, engine);
-      if (d.status === 'confirmed') return { worked: checks.length, confirmed: d.confirmed, correct: d.confirmed !== null && same(d.confirmed, expected), minutes, after: k };
+      const d = await rankCauses({ ...job, checks: checks.slice(0, k) }, base, engine);
+      if (d.confirmed !== null) return { worked: checks.length, confirmed: d.confirmed, correct: d.confirmed !== null && same(d.confirmed, expected), minutes, after: k };
     }
     return { worked: checks.length, confirmed: null, correct: false, minutes, after: checks.length };
   };

@@ -98,8 +98,23 @@ export type JobInput = Pick<CaseFile, 'machine' | 'symptoms' | 'observations' | 
 /** open: checks remain; confirmed: a check found the fault; exhausted: every useful check is done, nothing confirmed. */
 export type LoopStatus = 'open' | 'confirmed' | 'exhausted';
 
-export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngines): Promise<Diagnosis> {
-  const { checkById, shows, titleOf, catalogue, hazardText } = indexOf(base);
+/** The causes ranked for a job and the cause its worked checks confirm: what `cases check` scores, without the checks, words and isolation a diagnosis adds. */
+export interface Ranking {
+  confirmed: string | null;
+  causes: { id: string; score: number }[];
+}
+
+export async function rankCauses(input: JobInput, base: RuleBase, engine: RuleEngines): Promise<Ranking> {
+  const w = await weigh(input, base, engine, false);
+  return { confirmed: w.confirmed ?? null, causes: w.causes.map((c) => ({ id: c.id, score: c.score })) };
+}
+
+/**
+ * A job through the model and the rules, and the causes weighed on what fired and on the worked
+ * checks' results. `words`: the evidence says what it saw (a diagnosis shows it; a ranking does not need it).
+ */
+async function weigh(input: JobInput, base: RuleBase, engine: RuleEngines, words: boolean) {
+  const { checkById, shows } = indexOf(base);
   const worked = (input.checks ?? []).filter((w) => checkById.has(w.id));
   // What the checks measured and saw enters the model and the rules like any other reading.
   const job = withCheckFindings(input, worked);
@@ -107,21 +122,22 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
   const analyses = analyseTests(job);
   // Each check that read voltage, current and speed again is an operating point of its own.
   const otherPoints = worked.length ? [{ label: 'first readings', readings: input.readings ?? {} }, ...worked.map((w) => ({ label: w.id, readings: w.readings ?? {} }))] : [];
-  const { facts, fired, askable, askFirst, unsafe, cautions } = await runToFixpoint(engine, base, jobFacts(job, expectation, analyses, otherPoints));
+  const run = await runToFixpoint(engine, base, jobFacts(job, expectation, analyses, otherPoints));
+  const { facts, fired } = run;
   // A derived fact is explained by what the rule that derived it saw, recursively.
   const derivedBy = new Map(fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])));
-  const words = new Map<string, string>();
+  const said = new Map<string, string>();
   const derivedWords = (fact: string): string | undefined => {
     const f = derivedBy.get(fact);
     if (!f) return undefined;
-    if (!words.has(fact)) {
-      words.set(fact, fact); // guards against a self-reference while the words are built
-      words.set(fact, say(f));
+    if (!said.has(fact)) {
+      said.set(fact, fact); // guards against a self-reference while the words are built
+      said.set(fact, say(f));
     }
-    return words.get(fact);
+    return said.get(fact);
   };
   const say = (f: (typeof fired)[number]): string =>
-    f.rule.says ? fillTemplate(f.rule.says, facts, expectation) : describeTree(f.tree, expectation, derivedWords) || f.rule.name;
+    !words ? '' : f.rule.says ? fillTemplate(f.rule.says, facts, expectation) : describeTree(f.tree, expectation, derivedWords) || f.rule.name;
 
   const ruledOutBy = new Map<string, string[]>();
   const weights = new Map<string, Evidence[]>();
@@ -147,10 +163,6 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
   // Then what the checks found, in the order they were worked.
   const fromResults = resultEvidence(worked, checkById, shows, ruleScores);
   for (const [cause, evidence] of fromResults) weights.set(cause, [...(weights.get(cause) ?? []), ...evidence]);
-  const effects = worked.map((w) => ({
-    check: w.id,
-    effects: [...fromResults].flatMap(([cause, evidence]) => evidence.filter((e) => e.rule === `check:${w.id}`).map((e) => ({ cause, title: titleOf.get(cause) ?? cause, weight: e.weight, says: e.says }))),
-  }));
   const causes: RankedCauseResult[] = [];
   const scores = new Map<string, number>();
   for (const cause of base.causes) {
@@ -161,12 +173,22 @@ export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngi
     if (score > 0) causes.push({ id: cause.id, title: cause.title, score: Number(score.toFixed(3)), evidence: evidence.sort((a, b) => b.weight - a.weight) });
   }
   causes.sort((a, b) => b.score - a.score || compareIds(a.id, b.id));
+  return { job, worked, expectation, analyses, run, warningIds, ruledOut, fromResults, causes, scores, confirmed: confirmation(worked, shows, scores) };
+}
+
+export async function diagnose(input: JobInput, base: RuleBase, engine: RuleEngines): Promise<Diagnosis> {
+  const { checkById, shows, titleOf, catalogue, hazardText } = indexOf(base);
+  const { job, worked, expectation, analyses, run, warningIds, ruledOut, fromResults, causes, scores, confirmed } = await weigh(input, base, engine, true);
+  const { facts, askable, askFirst, unsafe, cautions } = run;
+  const effects = worked.map((w) => ({
+    check: w.id,
+    effects: [...fromResults].flatMap(([cause, evidence]) => evidence.filter((e) => e.rule === `check:${w.id}`).map((e) => ({ cause, title: titleOf.get(cause) ?? cause, weight: e.weight, says: e.says }))),
+  }));
 
   // Dangers before cautions, each in the safety file's order.
   const warnings = base.safety.warnings.filter((w) => warningIds.has(w.id)).sort((a, b) => Number(a.severity === 'caution') - Number(b.severity === 'caution'));
   const order = warnings.some((w) => w.clearFaultFirst) ? 'clear-fault-first' : warnings.some((w) => w.isolateFirst) ? 'isolate-first' : 'normal';
   const runaway = warnings.find((w) => w.runaway);
-  const confirmed = confirmation(worked, shows, scores);
 
   // The checks still worth doing: those of the leading causes, not yet worked, safe for this job.
   const done = new Set(worked.map((w) => w.id));
