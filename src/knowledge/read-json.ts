@@ -65,22 +65,24 @@ export function duplicateKeyIssue(file: string, text: string): Issue | undefined
 }
 
 /**
- * Reads until the end or until more than `limit` bytes are in, in 64 KiB pieces (some /proc files
- * take only aligned reads), into a buffer sized by what stat said and grown if the file holds more.
+ * Reads until the end or until more than `limit` bytes are in, into a buffer sized by what stat
+ * said (with room to see the end) and grown when the file holds more: /proc files say 0. Reads
+ * stay in whole 4 KiB blocks of at most 64 KiB, as some /proc files take only aligned reads.
  */
 function readAtMost(file: string, limit: number, size: number): Buffer {
   const fd = openSync(file, 'r');
   try {
+    const block = 4096;
     const piece = 64 * 1024;
-    let buffer = Buffer.allocUnsafe(Math.min(size, limit) + piece);
+    let buffer = Buffer.allocUnsafe(Math.ceil((Math.min(size, limit) + 1) / block) * block);
     let got = 0;
     while (got <= limit) {
-      if (got + piece > buffer.length) {
+      if (got === buffer.length) {
         const bigger = Buffer.allocUnsafe(Math.min(limit + piece, Math.max(2 * buffer.length, got + piece)));
         buffer.copy(bigger, 0, 0, got);
         buffer = bigger;
       }
-      const n = readSync(fd, buffer, got, piece, null);
+      const n = readSync(fd, buffer, got, Math.min(piece, buffer.length - got), null);
       if (n === 0) break;
       got += n;
     }
@@ -90,16 +92,27 @@ function readAtMost(file: string, limit: number, size: number): Buffer {
   }
 }
 
-/** The path of the first value nested deeper than MAX_DEPTH, found without recursion. */
+/**
+ * The path of the first value nested deeper than MAX_DEPTH, found without recursion: depths alone
+ * first (files are small and nearly always shallow), paths only when something is too deep.
+ */
 function tooDeep(root: unknown): string | undefined {
+  return deepest(root, false) ? (deepest(root, true) as string) : undefined;
+}
+
+/** Whether a value is nested deeper than MAX_DEPTH; with `withPath`, the path of the first such value. */
+function deepest(root: unknown, withPath: boolean): string | boolean {
   const todo: { value: unknown; depth: number; path: PropertyKey[] }[] = [{ value: root, depth: 0, path: [] }];
   for (let next = todo.pop(); next; next = todo.pop()) {
     const { value, depth, path } = next;
     if (value === null || typeof value !== 'object') continue;
-    if (depth >= MAX_DEPTH) return formatPath(path.slice(0, 12)) + (path.length > 12 ? `… (${path.length} levels)` : '');
-    for (const [k, v] of Object.entries(value)) todo.push({ value: v, depth: depth + 1, path: [...path, Array.isArray(value) ? Number(k) : k] });
+    if (depth >= MAX_DEPTH) return withPath ? formatPath(path.slice(0, 12)) + (path.length > 12 ? `… (${path.length} levels)` : '') : true;
+    for (const k in value) {
+      const v = (value as Record<string, unknown>)[k];
+      if (v !== null && typeof v === 'object') todo.push({ value: v, depth: depth + 1, path: withPath ? [...path, Array.isArray(value) ? Number(k) : k] : path });
+    }
   }
-  return undefined;
+  return false;
 }
 
 export function validate<S extends z.ZodType>(file: string, data: unknown, schema: S, pathPrefix = ''): Result<z.output<S>> {
@@ -162,36 +175,47 @@ function describeFsError(e: unknown): string {
 /**
  * The first key that appears twice in one object, with the object's path: JSON.parse keeps the
  * last silently, so a rule edited in two places would change without anyone seeing which counts.
- * A scan of the text that is known to be valid JSON, with a stack instead of recursion.
+ * A scan of the text that is known to be valid JSON, with a stack instead of recursion; paths are
+ * followed only in a second scan, once a file is known to hold a key twice.
  */
 function duplicateKey(text: string): { key: string; path: string } | undefined {
+  return scanKeys(text, false) ? scanKeys(text, true) : undefined;
+}
+
+function scanKeys(text: string, withPath: boolean): { key: string; path: string } | undefined {
   const frames: { keys?: Set<string>; path: PropertyKey[]; index: number }[] = [];
   let pendingKey: string | undefined;
   const here = () => frames.at(-1);
   const childPath = () => {
     const f = here();
-    if (!f) return [];
+    if (!f || !withPath) return [];
     return f.keys ? [...f.path, pendingKey ?? ''] : [...f.path, f.index];
   };
   for (let i = 0; i < text.length; i++) {
-    const c = text[i]!;
-    if (c === '"') {
+    const c = text.charCodeAt(i);
+    if (c === 0x22 /* " */) {
       let j = i + 1;
-      while (text[j] !== '"') j += text[j] === '\\' ? 2 : 1;
+      let escaped = false;
+      while (text.charCodeAt(j) !== 0x22) {
+        if (text.charCodeAt(j) === 0x5c /* \ */) {
+          escaped = true;
+          j += 2;
+        } else j++;
+      }
       const f = here();
       let k = j + 1;
-      while (k < text.length && ' \t\n\r'.includes(text[k]!)) k++;
+      while (k < text.length && (text[k] === ' ' || text[k] === '\t' || text[k] === '\n' || text[k] === '\r')) k++;
       if (f?.keys && text[k] === ':') {
-        const key = JSON.parse(text.slice(i, j + 1)) as string;
+        const key = escaped ? (JSON.parse(text.slice(i, j + 1)) as string) : text.slice(i + 1, j);
         if (f.keys.has(key)) return { key, path: formatPath(f.path) };
         f.keys.add(key);
         pendingKey = key;
       }
       i = j;
-    } else if (c === '{' || c === '[') {
-      frames.push({ path: childPath(), index: 0, ...(c === '{' ? { keys: new Set<string>() } : {}) });
-    } else if (c === '}' || c === ']') frames.pop();
-    else if (c === ',') {
+    } else if (c === 0x7b /* { */ || c === 0x5b /* [ */) {
+      frames.push({ path: childPath(), index: 0, ...(c === 0x7b ? { keys: new Set<string>() } : {}) });
+    } else if (c === 0x7d /* } */ || c === 0x5d /* ] */) frames.pop();
+    else if (c === 0x2c /* , */) {
       const f = here();
       if (f && !f.keys) f.index++;
     }

@@ -131,6 +131,8 @@ const TABLE: Record<string, Expected> = {
   // a key twice: JSON.parse would keep the last silently
   'duplicate-key-readings.json': { path: 'readings', says: /"speed" appears twice/ },
   'duplicate-key-top.json': { path: '', says: /"id" appears twice/ },
+  // the same key, once spelt with an escape: JSON.parse reads both as "speed"
+  'duplicate-key-escaped.json': { path: 'readings', says: /"speed" appears twice/ },
   'connection-with-escape-sequence.json': { path: 'machine.connection' },
 };
 
