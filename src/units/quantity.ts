@@ -155,7 +155,6 @@ export function parseQuantity(input: string | number, dimension: Dimension): Qua
 }
 
 function readQuantity(input: string | number, dimension: Dimension): QuantityResult {
-  const spec = DIMENSIONS[dimension];
   if (typeof input === 'number') return checkRange(input, String(input), dimension);
   const text = input.trim();
   if (text === '') return fail({ code: 'empty' });
@@ -168,15 +167,44 @@ function readQuantity(input: string | number, dimension: Dimension): QuantityRes
   if (!/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)? [A-Za-z][A-Za-z0-9 /^*]*$/.test(normalized)) {
     return fail(/^\D*$/.test(normalized) ? { code: 'no-number', text } : { code: 'not-a-quantity', text });
   }
-  let parsed: Unit;
-  try {
-    parsed = math().unit(normalized) as Unit;
-  } catch {
-    return fail({ code: 'not-a-quantity', text });
+  const space = normalized.indexOf(' ');
+  const convert = conversionOf(normalized.slice(space + 1), dimension);
+  if (convert === 'not-a-quantity') return fail({ code: 'not-a-quantity', text });
+  if (convert === 'wrong-dimension') return fail({ code: 'wrong-dimension', text, expected: dimension });
+  return checkRange(convert.scale * Number(normalized.slice(0, space)) + convert.offset, text, dimension);
+}
+
+/**
+ * How mathjs converts a unit as typed into the dimension's default unit: value ↦ scale·value +
+ * offset (an offset only for temperatures), or why the unit is refused. Worked out once for each
+ * unit text, as readings differ in their numbers far more than in their units.
+ */
+type Conversion = { scale: number; offset: number } | 'not-a-quantity' | 'wrong-dimension';
+const conversions = new Map<string, Conversion>();
+
+function conversionOf(unitText: string, dimension: Dimension): Conversion {
+  const key = `${dimension}\u0000${unitText}`;
+  let known = conversions.get(key);
+  if (known === undefined) {
+    known = workOutConversion(unitText, DIMENSIONS[dimension].unit);
+    if (conversions.size >= RECENT_MAX) conversions.clear();
+    conversions.set(key, known);
   }
-  if (parsed.value === null) return fail({ code: 'no-number', text });
-  if (!parsed.equalBase(math().unit(spec.unit))) return fail({ code: 'wrong-dimension', text, expected: dimension });
-  return checkRange(parsed.toNumber(spec.unit), text, dimension);
+  return known;
+}
+
+function workOutConversion(unitText: string, to: string): Conversion {
+  let zero: Unit;
+  let one: Unit;
+  try {
+    zero = math().unit(`0 ${unitText}`) as Unit;
+    one = math().unit(`1 ${unitText}`) as Unit;
+  } catch {
+    return 'not-a-quantity';
+  }
+  if (!one.equalBase(math().unit(to))) return 'wrong-dimension';
+  const offset = zero.toNumber(to);
+  return { scale: one.toNumber(to) - offset, offset };
 }
 
 function checkRange(value: number, text: string, dimension: Dimension): QuantityResult {

@@ -4,7 +4,9 @@ import { DIMENSIONS, normalizeQuantityText, parseQuantity, type Dimension } from
 
 // Reference: the full mathjs instance (general-purpose reference library), with the same two
 // units added. The adapter builds a smaller instance with number-only pow, round, fix and equal;
-// over every unit spelling below it must agree with the full one, value for value.
+// over every unit spelling below it must agree with the full one, value for value. The adapter
+// asks mathjs once per unit for its conversion and applies it to each number: the same check
+// holds that to what the full instance gives for the whole text.
 if (!all) throw new Error('mathjs exports no `all` factories');
 const full = create(all, {});
 full.createUnit('rpm', '1 / min');
