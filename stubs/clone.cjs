@@ -19,37 +19,43 @@ function prototypeOf(proto, value) {
     const special = !plain || value instanceof Map || value instanceof Set || value instanceof Date || value instanceof RegExp || value instanceof Error || value instanceof Promise;
     const shadowed = new Set();
     for (const key of Object.getOwnPropertyNames(proto)) if (Object.getOwnPropertyDescriptor(proto, key).set == null) shadowed.add(key);
-    known = { special, shadowed };
+    known = { special, shadowed: shadowed.size > 0 ? shadowed : undefined };
     prototypes.set(proto, known);
   }
   return known;
 }
 
-function clone(parent) {
-  const copied = new Map();
-  const copy = (value) => {
-    if (value === null || typeof value !== 'object') return value;
-    const seen = copied.get(value);
-    if (seen !== undefined) return seen;
-    if (Array.isArray(value)) {
-      if (Object.getPrototypeOf(value) !== Array.prototype) return original(value);
-      const out = [];
-      copied.set(value, out);
-      for (const key in value) out[key] = copy(value[key]);
-      return out;
-    }
-    const proto = Object.getPrototypeOf(value);
-    const known = proto === null ? undefined : prototypeOf(proto, value);
-    if ((known && known.special) || ArrayBuffer.isView(value) || Object.getOwnPropertySymbols(value).length > 0) return original(value);
-    const out = Object.create(proto);
+/**
+ * One value copied, with `copied` mapping each object already copied to its copy (shared objects
+ * stay shared, a cycle stays a cycle). A plain array is copied by index, keeping its holes: the
+ * lists json-rules-engine copies are JSON lists, with no other keys of their own.
+ */
+function copy(value, copied) {
+  if (value === null || typeof value !== 'object') return value;
+  const seen = copied.get(value);
+  if (seen !== undefined) return seen;
+  const proto = Object.getPrototypeOf(value);
+  if (proto === Array.prototype) {
+    const out = [];
     copied.set(value, out);
-    for (const key in value) {
-      if (known && known.shadowed.has(key)) continue;
-      out[key] = copy(value[key]);
-    }
+    for (let i = 0; i < value.length; i++) if (i in value) out[i] = copy(value[i], copied);
     return out;
-  };
-  return copy(parent);
+  }
+  if (Array.isArray(value)) return original(value);
+  const known = proto === null ? undefined : prototypeOf(proto, value);
+  if ((known && known.special) || ArrayBuffer.isView(value) || Object.getOwnPropertySymbols(value).length > 0) return original(value);
+  const out = Object.create(proto);
+  copied.set(value, out);
+  const shadowed = known && known.shadowed;
+  for (const key in value) {
+    if (shadowed !== undefined && shadowed.has(key)) continue;
+    out[key] = copy(value[key], copied);
+  }
+  return out;
+}
+
+function clone(parent) {
+  return parent === null || typeof parent !== 'object' ? parent : copy(parent, new Map());
 }
 
 module.exports = clone;
