@@ -1,12 +1,12 @@
 /**
  * Runs the rule base over one job's facts to a fixpoint. json-rules-engine shows a fact derived
  * in a run only to lower-priority rules of that run, so every rule has the same priority and the
- * loop reruns with the derived facts merged until nothing new appears: the result does not depend
- * on the order rules were loaded in.
+ * loop reruns, with the derived facts merged, the rules that read them, until nothing new appears:
+ * the result does not depend on the order rules were loaded in.
  */
 import { Engine, Fact, Rule as EngineRule, type RuleProperties, type RuleResult, type TopLevelCondition } from 'json-rules-engine';
 import type { Condition, Rule } from '../knowledge/rulebase-schema.js';
-import type { RuleBase } from '../knowledge/load-rules.js';
+import { factsRead, type RuleBase } from '../knowledge/load-rules.js';
 import type { Facts } from './facts.js';
 import { compareIds } from './compare-ids.js';
 
@@ -116,7 +116,7 @@ function newEngine(base: RuleBase): Engine {
  * The engine still decides every rule it runs, with its whole condition tree for explanations.
  */
 export class ScreenedRules {
-  private readonly rules: { rule: EngineRule; screen: Screen | undefined }[];
+  private readonly rules: { rule: EngineRule; screen: Screen | undefined; reads: ReadonlySet<string> }[];
   private readonly operators: { get(name: string): Judging | null };
   /** How many rules: the derive set's bounds the runs to a fixpoint. */
   readonly size: number;
@@ -127,7 +127,7 @@ export class ScreenedRules {
   ) {
     // The operators json-rules-engine evaluates with, so that the screen judges exactly as the run does.
     this.operators = (newEngine(base) as unknown as { operators: { get(name: string): Judging | null } }).operators;
-    this.rules = rules.map((r) => ({ rule: new EngineRule(r), screen: this.screenOf(r.conditions as Condition, new Set()) }));
+    this.rules = rules.map((r) => ({ rule: new EngineRule(r), screen: this.screenOf(r.conditions as Condition, new Set()), reads: new Set(factsRead(r.conditions as Condition, base.conditions)) }));
     this.size = rules.length;
   }
 
@@ -161,9 +161,12 @@ export class ScreenedRules {
     return { compare, operator, value };
   }
 
-  /** Runs the rules that can fire on these facts; resolves to the rules that fired. */
-  run(facts: Facts): Promise<{ results: RuleResult[] }> {
-    return this.runRules(facts, true);
+  /**
+   * Runs the rules that can fire on these facts; resolves to the rules that fired. With `only`,
+   * just the rules of those names (the rest are taken as decided already).
+   */
+  run(facts: Facts, only?: ReadonlySet<string>): Promise<{ results: RuleResult[] }> {
+    return this.runRules(facts, true, only);
   }
 
   /** Runs every rule, unscreened: what the screen is held to (test/engine/screened-rules.test.ts). */
@@ -171,11 +174,21 @@ export class ScreenedRules {
     return this.runRules(facts, false);
   }
 
-  private async runRules(facts: Facts, screened: boolean): Promise<{ results: RuleResult[] }> {
+  /** The names of the rules whose conditions read any of these facts (shared conditions followed). */
+  reading(facts: Iterable<string>): Set<string> {
+    const names = new Set<string>();
+    for (const fact of facts) for (const { rule, reads } of this.rules) if (reads.has(fact)) names.add(String(rule.name));
+    return names;
+  }
+
+  private async runRules(facts: Facts, screened: boolean, only?: ReadonlySet<string>): Promise<{ results: RuleResult[] }> {
     // Adding a rule points it at this run's engine; runs that overlap point it at engines made
     // alike (the same operators and shared conditions), so a rule evaluates the same in either.
     const engine = newEngine(this.base);
-    for (const { rule, screen } of this.rules) if (!screened || !screen || !fails(screen, facts)) engine.addRule(rule);
+    for (const { rule, screen } of this.rules) {
+      if (only && !only.has(String(rule.name))) continue;
+      if (!screened || !screen || !fails(screen, facts)) engine.addRule(rule);
+    }
     // A fact given as a value is cached under a hash of its id, a cache never read for a
     // constant: the same fact without it costs no hashing.
     const constants: Record<string, Fact> = {};
@@ -237,13 +250,19 @@ export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start:
   let facts = { ...start };
   let derived: Fired[] = [];
   let iterations = 0;
+  // The first run decides every derive rule; each later run only those that read a fact the run
+  // before added, as the rest read what they read before and decide as they did.
+  let rerun: ReadonlySet<string> | undefined;
   for (;;) {
     if (++iterations > limit) throw new RuleCycleError(`rules did not settle after ${limit} runs: derived facts keep changing`);
-    derived = firedOf((await engines.derive.run(facts)).results);
+    const decided = firedOf((await engines.derive.run(facts, rerun)).results);
+    derived = rerun ? [...derived.filter((f) => !rerun!.has(f.rule.name)), ...decided] : decided;
     const added: Facts = {};
     for (const { rule } of derived) if (rule.kind === 'derive' && facts[rule.derive] !== true) added[rule.derive] = true;
     if (Object.keys(added).length === 0) break;
     facts = { ...facts, ...added };
+    rerun = engines.derive.reading(Object.keys(added));
+    if (rerun.size === 0) break;
   }
   const { results } = await engines.judge.run(facts);
   const names = results.map((r) => String(r.name));
