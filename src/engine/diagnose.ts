@@ -122,7 +122,7 @@ async function weigh(input: JobInput, base: RuleBase, engine: RuleEngines, words
   const analyses = analyseTests(job);
   // Each check that read voltage, current and speed again is an operating point of its own.
   const otherPoints = worked.length ? [{ label: 'first readings', readings: input.readings ?? {} }, ...worked.map((w) => ({ label: w.id, readings: w.readings ?? {} }))] : [];
-  const run = await runToFixpoint(engine, base, jobFacts(job, expectation, analyses, otherPoints));
+  const run = await runToFixpoint(engine, base, jobFacts(job, expectation, analyses, otherPoints), words);
   const { facts, fired } = run;
   // A derived fact is explained by what the rule that derived it saw, recursively.
   const derivedBy = new Map(fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])));

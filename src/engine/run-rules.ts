@@ -12,7 +12,7 @@ import { compareIds } from './compare-ids.js';
 
 export interface Fired {
   rule: Rule;
-  /** The rule result's condition tree with each leaf's factResult, valueResult and result. */
+  /** The rule result's condition tree with each leaf's factResult, valueResult and result (undefined in a run without explanations). */
   tree: unknown;
 }
 
@@ -114,9 +114,18 @@ function newEngine(base: RuleBase): Engine {
  * the engine's own operators, on the facts read as the engine reads them, through `all`, `any`
  * and shared conditions; a rule they show false is left out, as the engine would have failed it.
  * The engine still decides every rule it runs, with its whole condition tree for explanations.
+ * A ranking needs no explanations (`decide`): there a screen that judges the whole condition
+ * decides its rule, and only the rules with a `not` go to the engine.
  */
 export class ScreenedRules {
-  private readonly rules: { rule: EngineRule; screen: Screen | undefined; reads: ReadonlySet<string> }[];
+  private readonly rules: {
+    rule: EngineRule;
+    name: string;
+    screen: Screen | undefined;
+    /** The screen judges the whole condition (no `not`, every operator known): its verdict is the engine's. */
+    whole: boolean;
+    reads: ReadonlySet<string>;
+  }[];
   private readonly operators: { get(name: string): Judging | null };
   /** How many rules: the derive set's bounds the runs to a fixpoint. */
   readonly size: number;
@@ -127,8 +136,27 @@ export class ScreenedRules {
   ) {
     // The operators json-rules-engine evaluates with, so that the screen judges exactly as the run does.
     this.operators = (newEngine(base) as unknown as { operators: { get(name: string): Judging | null } }).operators;
-    this.rules = rules.map((r) => ({ rule: new EngineRule(r), screen: this.screenOf(r.conditions as Condition, new Set()), reads: new Set(factsRead(r.conditions as Condition, base.conditions)) }));
+    this.rules = rules.map((r) => {
+      const conditions = r.conditions as Condition;
+      return { rule: new EngineRule(r), name: String(r.name), screen: this.screenOf(conditions, new Set()), whole: this.judgesWhole(conditions, new Set()), reads: new Set(factsRead(conditions, base.conditions)) };
+    });
     this.size = rules.length;
+  }
+
+  /**
+   * Whether the screen judges all of a condition: every part a comparison with a known operator,
+   * through `all`, `any` and shared conditions, and no `not`. Then the screen passes exactly when
+   * the engine fires (test/engine/screened-rules.test.ts holds it to that).
+   */
+  private judgesWhole(c: Condition, via: Set<string>): boolean {
+    if ('all' in c) return c.all.length > 0 && c.all.every((x) => this.judgesWhole(x, via));
+    if ('any' in c) return c.any.length > 0 && c.any.every((x) => this.judgesWhole(x, via));
+    if ('condition' in c) {
+      const shared = Object.hasOwn(this.base.conditions, c.condition) ? this.base.conditions[c.condition] : undefined;
+      return shared !== undefined && !via.has(c.condition) && this.judgesWhole(shared, new Set([...via, c.condition]));
+    }
+    if ('not' in c) return false;
+    return this.operators.get(c.operator) !== null;
   }
 
   /** What of a condition can be judged before a run; undefined when nothing can. */
@@ -174,6 +202,27 @@ export class ScreenedRules {
     return this.runRules(facts, false);
   }
 
+  /**
+   * The names of the rules that fire on these facts, without their condition trees: what a
+   * ranking needs. A rule its screen judges whole is decided by the screen; the engine runs the
+   * rest. With `only`, just the rules of those names.
+   */
+  async decide(facts: Facts, only?: ReadonlySet<string>): Promise<string[]> {
+    const fired: string[] = [];
+    const engine = newEngine(this.base);
+    let left = 0;
+    for (const { rule, name, screen, whole } of this.rules) {
+      if ((only && !only.has(name)) || (screen && fails(screen, facts))) continue;
+      if (whole) fired.push(name);
+      else {
+        engine.addRule(rule);
+        left++;
+      }
+    }
+    if (left > 0) for (const r of (await engine.run(constantFacts(facts))).results) fired.push(String(r.name));
+    return fired;
+  }
+
   /** The names of the rules whose conditions read any of these facts (shared conditions followed). */
   reading(facts: Iterable<string>): Set<string> {
     const names = new Set<string>();
@@ -189,12 +238,18 @@ export class ScreenedRules {
       if (only && !only.has(String(rule.name))) continue;
       if (!screened || !screen || !fails(screen, facts)) engine.addRule(rule);
     }
-    // A fact given as a value is cached under a hash of its id, a cache never read for a
-    // constant: the same fact without it costs no hashing.
-    const constants: Record<string, Fact> = {};
-    for (const id of Object.keys(facts)) constants[id] = new Fact(id, facts[id], { cache: false });
-    return engine.run(constants);
+    return engine.run(constantFacts(facts));
   }
+}
+
+/**
+ * The facts for a run. A fact given as a value is cached under a hash of its id, a cache never
+ * read for a constant: the same fact without it costs no hashing.
+ */
+function constantFacts(facts: Facts): Record<string, Fact> {
+  const constants: Record<string, Fact> = {};
+  for (const id of Object.keys(facts)) constants[id] = new Fact(id, facts[id], { cache: false });
+  return constants;
 }
 
 /** Whether a screen shows its condition false on these facts. */
@@ -242,11 +297,23 @@ function topLevel(c: Condition): TopLevelCondition {
   return ('all' in c || 'any' in c || 'not' in c || 'condition' in c ? c : { all: [c] }) as TopLevelCondition;
 }
 
-export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start: Facts): Promise<RunOutcome> {
+/**
+ * The rules to a fixpoint on a job's facts. `explain`: every rule that fires comes with its
+ * condition tree as the engine evaluated it (a diagnosis words its evidence from them); without,
+ * the rules that fire are only named (a ranking needs no more), and most are decided by their screens.
+ */
+export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start: Facts, explain = true): Promise<RunOutcome> {
   const limit = engines.derive.size + 2;
   const byName = engines.byName;
-  const firedOf = (results: RuleResult[]): Fired[] =>
-    results.filter((r) => byName.has(String(r.name))).map((r) => ({ rule: byName.get(String(r.name))!, tree: r.toJSON(false).conditions }));
+  /** The rules of a set that fire: their names (question, safety and caution rules among them) and the rule base's rules. */
+  const runSet = async (set: ScreenedRules, facts: Facts, only?: ReadonlySet<string>): Promise<{ names: string[]; fired: Fired[] }> => {
+    if (!explain) {
+      const names = await set.decide(facts, only);
+      return { names, fired: names.flatMap((n) => (byName.has(n) ? [{ rule: byName.get(n)!, tree: undefined }] : [])) };
+    }
+    const { results } = await set.run(facts, only);
+    return { names: results.map((r) => String(r.name)), fired: results.filter((r) => byName.has(String(r.name))).map((r) => ({ rule: byName.get(String(r.name))!, tree: r.toJSON(false).conditions })) };
+  };
   let facts = { ...start };
   let derived: Fired[] = [];
   let iterations = 0;
@@ -255,7 +322,7 @@ export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start:
   let rerun: ReadonlySet<string> | undefined;
   for (;;) {
     if (++iterations > limit) throw new RuleCycleError(`rules did not settle after ${limit} runs: derived facts keep changing`);
-    const decided = firedOf((await engines.derive.run(facts, rerun)).results);
+    const decided = (await runSet(engines.derive, facts, rerun)).fired;
     derived = rerun ? [...derived.filter((f) => !rerun!.has(f.rule.name)), ...decided] : decided;
     const added: Facts = {};
     for (const { rule } of derived) if (rule.kind === 'derive' && facts[rule.derive] !== true) added[rule.derive] = true;
@@ -264,8 +331,8 @@ export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start:
     rerun = engines.derive.reading(Object.keys(added));
     if (rerun.size === 0) break;
   }
-  const { results } = await engines.judge.run(facts);
-  const names = results.map((r) => String(r.name));
+  const judged = await runSet(engines.judge, facts);
+  const names = judged.names;
   const withPrefix = (prefix: string) => new Set(names.filter((n) => n.startsWith(prefix)).map((n) => n.slice(prefix.length)));
   const cautions = new Map<string, string[]>();
   for (const entry of withPrefix(CAUTION_PREFIX)) {
@@ -274,7 +341,7 @@ export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start:
     const hazard = base.checks.find((c) => c.id === check)?.cautions?.[Number(entry.slice(cut + 1))]?.hazard;
     if (hazard) cautions.set(check, [...(cautions.get(check) ?? []), hazard]);
   }
-  return { facts, fired: sortByName([...derived, ...firedOf(results)]), askable: withPrefix(ASK_PREFIX), askFirst: withPrefix(ASK_FIRST_PREFIX), unsafe: withPrefix(UNSAFE_PREFIX), cautions, iterations };
+  return { facts, fired: sortByName([...derived, ...judged.fired]), askable: withPrefix(ASK_PREFIX), askFirst: withPrefix(ASK_FIRST_PREFIX), unsafe: withPrefix(UNSAFE_PREFIX), cautions, iterations };
 }
 
 function sortByName(fired: Fired[]): Fired[] {
