@@ -10,6 +10,7 @@ import type { ModelMachine } from '../families/context.js';
 import { radSToRpm } from '../families/context.js';
 import { fitBasis, type FitBasis } from './basis.js';
 import { HYPOTHESES, type Hypothesis, type World } from './hypotheses.js';
+import { minimise } from './minimise.js';
 
 /** The readings a fit predicts, with how far each may stray on a healthy machine (share). */
 export const FIT_READINGS = {
@@ -81,7 +82,6 @@ export interface FitReport {
 const TIE_Z = 0.35;
 /** A load within this share of rated torque is within rating. */
 const LOAD_WITHIN_RATING = 1.08;
-const GRID = 64;
 /** How far a current or voltage reading taken on site may be off (common practice: ±2 %). */
 const READING_ERROR = 0.02;
 /** Poles of the machine a shorted field coil sits in (four: the usual industrial machine, common practice). */
@@ -199,42 +199,6 @@ function misfit(b: FitBasis, r: Readings, p: Prediction, speedTolerance: number)
 }
 
 const worst = (rs: Residual[], key: 'z' | 'share') => rs.reduce((m, x) => Math.max(m, Math.abs(x[key])), 0);
-
-/** A one-parameter least-squares minimum: a grid for the bracket, then golden-section search. */
-export function minimise(f: (x: number) => number, lo: number, hi: number): number {
-  let bestK = 0;
-  let bestF = Number.POSITIVE_INFINITY;
-  for (let k = 0; k <= GRID; k++) {
-    const fx = f(lo + ((hi - lo) * k) / GRID);
-    if (fx < bestF) {
-      bestF = fx;
-      bestK = k;
-    }
-  }
-  let a = lo + ((hi - lo) * Math.max(0, bestK - 1)) / GRID;
-  let c = lo + ((hi - lo) * Math.min(GRID, bestK + 1)) / GRID;
-  const g = (Math.sqrt(5) - 1) / 2;
-  let x1 = c - g * (c - a);
-  let x2 = a + g * (c - a);
-  let f1 = f(x1);
-  let f2 = f(x2);
-  for (let k = 0; k < 60 && c - a > 1e-10 * (Math.abs(a) + Math.abs(c) + 1e-12); k++) {
-    if (f1 <= f2) {
-      c = x2;
-      x2 = x1;
-      f2 = f1;
-      x1 = c - g * (c - a);
-      f1 = f(x1);
-    } else {
-      a = x1;
-      x1 = x2;
-      f1 = f2;
-      x2 = a + g * (c - a);
-      f2 = f(x2);
-    }
-  }
-  return (a + c) / 2;
-}
 
 /**
  * @example fitReadings(machine, { armatureVoltage: 229, armatureCurrent: 60, fieldCurrent: 1.11, speed: 1070 })
