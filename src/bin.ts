@@ -10,6 +10,7 @@ import { helpFor } from './shell/help.js';
 import module, { createRequire } from 'node:module';
 import { refreshCodeCache, runBundle, type CompiledBundle } from './launch/compiled-bundle.js';
 import { withoutFetch } from './launch/without-fetch.js';
+import { runOffThread, runsOffThread } from './launch/off-thread.js';
 import type { Install, runCli as RunCli } from './main.js';
 
 // This file is always dist/cli.mjs (or src/bin.ts from source): paths are relative to it.
@@ -56,6 +57,8 @@ async function pickRunCli(): Promise<typeof RunCli> {
 // Help and the version are answered here, without loading the tool.
 if (line.kind === 'help') process.stdout.write(helpFor(line.commands, process.stdout.columns || Number(process.env.COLUMNS) || 80) + '\n');
 else if (line.kind === 'version') process.stdout.write((typeof DCTRIAGE_VERSION === 'string' ? DCTRIAGE_VERSION : 'dev') + '\n');
+// cases check runs in a thread of its own with a bounded heap; this thread only passes its output on.
+else if (runsOffThread(line)) await runOffThread(fileURLToPath(import.meta.url), argv);
 else {
   await (await pickRunCli())(argv, install);
   if (cached && !cached.cacheUsed) refreshCodeCache(cached, here('./core.cjs.cache'));

@@ -39,6 +39,7 @@ import { formatHistory } from './report/history-text.js';
 import { assetHistory, earlierJobsNote, type RecordedJob } from './engine/asset-history.js';
 import { caseCheckPrinter } from './shell/stream-case-check.js';
 import { caseCheckWorkerJob, checkCasesInParallel, runCaseCheckWorker } from './shell/parallel-case-check.js';
+import { terminalFacts } from './launch/off-thread.js';
 import { helpFor } from './shell/help.js';
 import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
 import { readCommandLine } from './shell/cli-options.js';
@@ -247,7 +248,7 @@ async function casesCheck(dirArg: string | undefined, opts: { rules?: string | u
     };
   }
   // Results as they come, a count on a terminal, and (without --adaptive) every core at work.
-  const printer = caseCheckPrinter(opts.json ? 'json' : 'text', (text) => process.stdout.write(text), process.stderr.isTTY ? (text) => process.stderr.write(text) : undefined, { format: JSON_FORMATS.caseCheck, width: terminalWidth(), shownPath });
+  const printer = caseCheckPrinter(opts.json ? 'json' : 'text', (text) => process.stdout.write(text), terminalFacts().stderrIsTTY ? (text) => process.stderr.write(text) : undefined, { format: JSON_FORMATS.caseCheck, width: terminalWidth(), shownPath });
   const report = runner ? await checkCases(files, base.value, runner, printer.stream) : await checkCasesInParallel(files, base.value, k.value.rules, printer.stream);
   const someOut = printer.end(report);
   if (!report.ok) return fail(report.issues);
@@ -456,7 +457,7 @@ const today = () => localDate();
 /** This machine's time zone (TZ, else the system's), for the times in a report. */
 const localTimeZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone;
 /** The terminal's width; COLUMNS when the output is not a terminal (piped, or in a test). */
-const terminalWidth = () => process.stdout.columns || Number(process.env.COLUMNS) || 80;
+const terminalWidth = () => terminalFacts().stdoutColumns || Number(process.env.COLUMNS) || 80;
 /** Colour as Node's hasColors() decides (NO_COLOR, FORCE_COLOR, TERM=dumb); the chart itself is drawn either way. */
 const useColor = () => wantsColor(process.stdout);
 

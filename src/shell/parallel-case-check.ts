@@ -1,24 +1,23 @@
 /**
- * cases check on every core: the files go out in batches to worker threads, each with its own
- * rule engine, and the results come back and are reported in file order as they arrive, so only
- * a few batches are ever held. Each worker is this same command started again in a thread
- * (the launcher, then runCli, which sees the worker's data and serves batches instead).
+ * cases check on every core: the files go out in batches, worked by this thread and by one helper
+ * thread for each further core, each with its own rule engine; the results are reported in file
+ * order as they arrive, so only a few batches are ever held. A helper is this same command started
+ * again in a thread (the launcher, then runCli, which sees the helper's data and serves batches).
  */
-import { availableParallelism } from 'node:os';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import { dirname } from 'node:path';
 import { CaseIssues, CaseTally, checkCases, loopReplayer, rankCaseFile, sameCause, wholeCaseRunner, type CaseCheckReport, type CaseRank, type CaseStream, type SkippedCase } from '../engine/check-cases.js';
 import { buildEngine } from '../engine/run-rules.js';
 import type { RuleBase } from '../knowledge/load-rules.js';
 import { ok, type Issue, type Result } from '../knowledge/result.js';
+import { HELPER_LIMITS, threadsWanted } from '../launch/threads.js';
 
 /** Files per message: large enough that messages cost little, small enough that order costs no memory. */
 const BATCH = 50;
 /** Below this, starting threads costs more than it saves. */
 const MIN_FILES = 200;
-const MAX_WORKERS = 8;
-/** Enough for the built-in rules with room to spare; a worker that runs out hands its batch back. */
-const WORKER_LIMITS = { maxOldGenerationSizeMb: Number(process.env.DCTRIAGE_WORKER_HEAP_MB) || 48, maxYoungGenerationSizeMb: 8 };
+/** Batches a helper holds at once: it starts the next while this thread, busy with its own, has not yet read the last. */
+const IN_FLIGHT = 2;
 
 type Ranked = CaseRank | { skipped: SkippedCase } | { issues: Issue[] };
 interface WorkerJob {
@@ -45,6 +44,8 @@ export function runCaseCheckWorker(job: { rules: string }, loadRules: (dir: stri
   const replay = loopReplayer(base.value, engine);
   const same = sameCause(base.value);
   const causeIds = new Set(base.value.causes.map((c) => c.id));
+  // Batches are worked one after the other, in the order they came.
+  let queue = Promise.resolve();
   return new Promise((resolve) => {
     port.on('message', (m: ToWorker) => {
       if ('done' in m) {
@@ -52,21 +53,20 @@ export function runCaseCheckWorker(job: { rules: string }, loadRules: (dir: stri
         resolve();
         return;
       }
-      void (async () => {
+      queue = queue.then(async () => {
         const results: Ranked[] = [];
         for (const file of m.files) results.push(await rankCaseFile(file, causeIds, run, replay, same));
         port.postMessage({ batch: m.batch, results } satisfies FromWorker);
-      })();
+      });
     });
   });
 }
 
-/** Like checkCases, on worker threads when there are enough files and cores; in this thread otherwise. */
+/** Like checkCases, with helper threads when there are enough files and cores; in this thread alone otherwise. */
 export async function checkCasesInParallel(files: string[], base: RuleBase, rulesDir: string, stream: CaseStream, script = process.argv[1]): Promise<Result<CaseCheckReport>> {
   const batches: string[][] = [];
   for (let k = 0; k < files.length; k += BATCH) batches.push(files.slice(k, k + BATCH));
-  // DCTRIAGE_THREADS=1 keeps it in this thread (to compare, or on a machine shared with other work).
-  const threads = Math.min(Number(process.env.DCTRIAGE_THREADS) || availableParallelism(), MAX_WORKERS, batches.length);
+  const threads = Math.min(threadsWanted(), batches.length);
   if (threads < 2 || files.length < MIN_FILES || !script) return checkCases(files, base, undefined, stream);
 
   const issues = new CaseIssues();
@@ -76,7 +76,7 @@ export async function checkCasesInParallel(files: string[], base: RuleBase, rule
   const pending = batches.map((_, k) => k);
   let nextToReport = 0;
   let filesDone = 0;
-  const workers: Worker[] = [];
+  const helpers: Worker[] = [];
   try {
     await new Promise<void>((resolve, reject) => {
       const report = () => {
@@ -94,56 +94,63 @@ export async function checkCasesInParallel(files: string[], base: RuleBase, rule
         }
         if (nextToReport === batches.length) resolve();
       };
-      // This thread only hands out batches, unless a worker fails: then it takes over what is left.
+      // This thread works batches too, and between two lets the helpers' results in.
+      const engineHere = buildEngine(base);
+      const here = wholeCaseRunner(base, engineHere);
+      const replayHere = loopReplayer(base, engineHere);
+      const sameHere = sameCause(base);
+      const causeIds = new Set(base.causes.map((c) => c.id));
       let working = false;
       const workHere = async () => {
         if (working) return;
         working = true;
-        const engineHere = buildEngine(base);
-        const here = wholeCaseRunner(base, engineHere);
-        const replayHere = loopReplayer(base, engineHere);
-        const sameHere = sameCause(base);
-        const causeIds = new Set(base.causes.map((c) => c.id));
         for (let batch = pending.shift(); batch !== undefined; batch = pending.shift()) {
           const results: Ranked[] = [];
           for (const file of batches[batch]!) results.push(await rankCaseFile(file, causeIds, here, replayHere, sameHere));
           arrived.set(batch, results);
           report();
+          await new Promise((next) => setImmediate(next));
         }
         working = false;
       };
       const start = () => {
         // The same command in a thread: argv keeps the launcher on its fast build. Its heap is
         // kept small, so that garbage is collected rather than held (memory stays flat).
-        const w = new Worker(script, { argv: ['cases', 'check'], workerData: { dctriageCaseCheck: { rules: rulesDir } } satisfies WorkerJob, stdout: false, stderr: false, resourceLimits: WORKER_LIMITS });
-        workers.push(w);
-        let inFlight: number | undefined;
+        const w = new Worker(script, { argv: ['cases', 'check'], workerData: { dctriageCaseCheck: { rules: rulesDir } } satisfies WorkerJob, stdout: false, stderr: false, resourceLimits: HELPER_LIMITS });
+        helpers.push(w);
+        const inFlight = new Set<number>();
         const send = () => {
-          inFlight = pending.shift();
-          if (inFlight !== undefined) w.postMessage({ batch: inFlight, files: batches[inFlight]! } satisfies ToWorker);
+          while (inFlight.size < IN_FLIGHT) {
+            const batch = pending.shift();
+            if (batch === undefined) return;
+            inFlight.add(batch);
+            w.postMessage({ batch, files: batches[batch]! } satisfies ToWorker);
+          }
         };
         w.on('message', (m: FromWorker) => {
           if ('failed' in m) return reject(new Error(m.failed));
+          inFlight.delete(m.batch);
           arrived.set(m.batch, m.results);
           send();
           report();
         });
-        // A worker that fails (out of its memory on a large rule base, say): its batch goes back, and this thread works.
+        // A helper that fails (out of its memory on a large rule base, say): its batches go back, for this thread.
         w.on('error', () => {
-          if (inFlight !== undefined) pending.unshift(inFlight);
-          inFlight = undefined;
+          pending.unshift(...inFlight);
+          inFlight.clear();
           workHere().catch(reject);
         });
         send();
       };
       try {
-        for (let k = 0; k < threads; k++) start();
+        for (let k = 1; k < threads; k++) start();
       } catch {
-        workHere().catch(reject);
+        // No helper could start: this thread works alone.
       }
+      workHere().catch(reject);
     });
   } finally {
-    for (const w of workers) w.postMessage({ done: true } satisfies ToWorker);
+    for (const w of helpers) w.postMessage({ done: true } satisfies ToWorker);
   }
   const failure = issues.result(dirname(files[0]!));
   if (failure) return failure;
