@@ -125,7 +125,7 @@ async function weigh(input: JobInput, base: RuleBase, engine: RuleEngines, words
   const run = await runToFixpoint(engine, base, jobFacts(job, expectation, analyses, otherPoints), words);
   const { facts, fired } = run;
   // A derived fact is explained by what the rule that derived it saw, recursively.
-  const derivedBy = new Map(fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])));
+  const derivedBy = new Map(words ? fired.flatMap((f) => (f.rule.kind === 'derive' ? [[f.rule.derive, f] as const] : [])) : []);
   const said = new Map<string, string>();
   const derivedWords = (fact: string): string | undefined => {
     const f = derivedBy.get(fact);
@@ -142,9 +142,14 @@ async function weigh(input: JobInput, base: RuleBase, engine: RuleEngines, words
   const ruledOutBy = new Map<string, string[]>();
   const weights = new Map<string, Evidence[]>();
   const warningIds = new Set<string>();
+  const listed = <T>(map: Map<string, T[]>, key: string): T[] => {
+    let list = map.get(key);
+    if (!list) map.set(key, (list = []));
+    return list;
+  };
   for (const f of fired) {
-    if (f.rule.kind === 'rule-out') ruledOutBy.set(f.rule.cause, [...(ruledOutBy.get(f.rule.cause) ?? []), say(f)]);
-    if (f.rule.kind === 'evidence') weights.set(f.rule.cause, [...(weights.get(f.rule.cause) ?? []), { rule: f.rule.name, says: say(f), weight: f.rule.weight }]);
+    if (f.rule.kind === 'rule-out') listed(ruledOutBy, f.rule.cause).push(say(f));
+    if (f.rule.kind === 'evidence') listed(weights, f.rule.cause).push({ rule: f.rule.name, says: say(f), weight: f.rule.weight });
     if (f.rule.kind === 'warning') warningIds.add(f.rule.warning);
   }
   const applies = (a: AppliesTo | undefined) =>
@@ -162,7 +167,7 @@ async function weigh(input: JobInput, base: RuleBase, engine: RuleEngines, words
   }
   // Then what the checks found, in the order they were worked.
   const fromResults = resultEvidence(worked, checkById, shows, ruleScores);
-  for (const [cause, evidence] of fromResults) weights.set(cause, [...(weights.get(cause) ?? []), ...evidence]);
+  for (const [cause, evidence] of fromResults) listed(weights, cause).push(...evidence);
   const causes: RankedCauseResult[] = [];
   const scores = new Map<string, number>();
   for (const cause of base.causes) {
