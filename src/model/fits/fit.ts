@@ -247,19 +247,38 @@ export function fitReadings(machine: ModelMachine, given: Readings): FitReport |
     return value;
   };
 
+  // Every fit is written out whole, with its keys in one order: objects of one shape, made fast.
+  const fitOf = (h: Hypothesis, value: number, plausible: boolean, residuals: Residual[], worstZ: number, explains: boolean, verdict: FitVerdict, prediction: Prediction | undefined): HypothesisFit => ({
+    id: h.id,
+    kind: h.kind,
+    parameter: h.parameter,
+    unit: h.unit,
+    value,
+    healthyValue: h.healthy(b),
+    plausible,
+    residuals,
+    worstShare: verdict === 'unfit' ? NaN : worst(residuals, 'share'),
+    worstZ,
+    explains,
+    verdict,
+    contradictedBy: verdict === 'contradicted' ? worstReading(residuals) : undefined,
+    prediction,
+  });
+  const unfit = (h: Hypothesis) => fitOf(h, NaN, false, [], NaN, false, 'unfit', undefined);
+
   const fits = HYPOTHESES.map((h): HypothesisFit => {
-    const base = { id: h.id, kind: h.kind, parameter: h.parameter, unit: h.unit, healthyValue: h.healthy(b) };
-    if (!h.applies(b, r)) return { ...base, value: NaN, plausible: false, residuals: [], worstShare: NaN, worstZ: NaN, explains: false, verdict: 'unfit' };
+    if (!h.applies(b, r)) return unfit(h);
     if (h.kind === 'load') {
       const value = h.measure!(b, r, healthy.torquePu);
-      if (value === undefined) return { ...base, value: NaN, plausible: false, residuals: [], worstShare: NaN, worstZ: NaN, explains: false, verdict: 'unfit' };
+      if (value === undefined) return unfit(h);
       const plausible = h.plausible(value, b, r);
-      const verdict: FitVerdict = !healthy.explains ? 'contradicted' : plausible ? 'explains' : 'not-needed';
-      return { ...base, value, plausible, residuals: healthyResiduals, worstShare: worst(healthyResiduals, 'share'), worstZ: healthy.worstZ, explains: healthy.explains, verdict, contradictedBy: verdict === 'contradicted' ? worstReading(healthyResiduals) : undefined, prediction: healthyPrediction };
+      return fitOf(h, value, plausible, healthyResiduals, healthy.worstZ, healthy.explains, !healthy.explains ? 'contradicted' : plausible ? 'explains' : 'not-needed', healthyPrediction);
     }
     const [lo, hi] = h.search(b, r);
     const value = bestValue(h.acts!, lo, hi);
-    const prediction = predict(b, { ...neutral, [h.acts!]: value }, ia, noLoadIa);
+    const world = { ...neutral };
+    world[h.acts!] = value;
+    const prediction = predict(b, world, ia, noLoadIa);
     const rs = residuals(prediction);
     // The load this fault would leave on the shaft: beyond rating, the current is not explained.
     if (prediction.torquePu > LOAD_WITHIN_RATING) {
@@ -269,8 +288,7 @@ export function fitReadings(machine: ModelMachine, given: Readings): FitReport |
     const worstZ = worst(rs, 'z');
     const explains = worstZ <= 1;
     const plausible = h.plausible(value, b, r);
-    const verdict: FitVerdict = healthy.explains ? 'not-needed' : !plausible ? 'implausible' : explains ? 'explains' : 'contradicted';
-    return { ...base, value, plausible, residuals: rs, worstShare: worst(rs, 'share'), worstZ, explains, verdict, contradictedBy: verdict === 'contradicted' ? worstReading(rs) : undefined, prediction };
+    return fitOf(h, value, plausible, rs, worstZ, explains, healthy.explains ? 'not-needed' : !plausible ? 'implausible' : explains ? 'explains' : 'contradicted', prediction);
   });
 
   const explaining = fits.filter((f) => f.verdict === 'explains');

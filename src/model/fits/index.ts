@@ -22,12 +22,12 @@ export const CIRCUIT_FIT_FIELDS = ['points', 'resistance', 'resistanceRatio', 'f
 
 export interface HypothesisFacts {
   verdict: FitVerdict;
-  value?: number;
-  worstShare?: number;
+  value?: number | undefined;
+  worstShare?: number | undefined;
   plausible: boolean;
   explains: boolean;
   /** The reading that disagrees most, when the verdict is contradicted (`speed`, `fieldCurrent`, …). */
-  contradictedBy?: string;
+  contradictedBy?: string | undefined;
 }
 
 export interface FitFacts {
@@ -39,8 +39,6 @@ export interface FitFacts {
   /** Hypotheses tied as best, with the readings not yet taken that would tell each pair apart. */
   fitTies: { a: string; b: string; separatedBy: string[] }[];
 }
-
-const finite = (x: number) => (Number.isFinite(x) ? { value: x } : {});
 
 /**
  * Facts for a job; every hypothesis is present ("unfit" where the readings do not allow a fit).
@@ -57,13 +55,14 @@ export function fitFacts(machine: ModelMachine, readings: Readings, fromChecks: 
     return { fit, fitSays: circuitSays, fitTies: [] };
   }
   for (const h of report.hypotheses) {
+    // Every key written, in one order (a value that is not there is undefined, as a rule reads it).
     fit[h.id] = {
       verdict: h.verdict,
-      ...finite(h.value),
-      ...(Number.isFinite(h.worstShare) ? { worstShare: h.worstShare } : {}),
+      value: Number.isFinite(h.value) ? h.value : undefined,
+      worstShare: Number.isFinite(h.worstShare) ? h.worstShare : undefined,
       plausible: h.plausible,
       explains: h.explains,
-      ...(h.contradictedBy ? { contradictedBy: h.contradictedBy } : {}),
+      contradictedBy: h.contradictedBy,
     };
   }
   fit.healthy = { explains: report.healthy.explains, worstShare: Math.max(0, ...report.healthy.residuals.map((r) => Math.abs(r.share))) };
