@@ -91,7 +91,20 @@ const factRef = (fact: string, path: string | undefined): FactRef => ({ fact, na
  * constant or with another fact, and `all` and `any` of those (a `not` is never judged). When a
  * screen fails, the condition is false.
  */
-type Screen = { compare: FactRef; operator: Judging; value: unknown; valueFact?: FactRef } | { all: Screen[] } | { any: Screen[] };
+type Screen = Comparison | { all: Screen[] } | { any: Screen[] };
+
+/**
+ * One comparison of a screen. The same comparison in many rules (a symptom, a fit's verdict) is
+ * one object, judged once per set of facts: `judgedOn` holds the facts it was last judged on.
+ */
+interface Comparison {
+  compare: FactRef;
+  operator: Judging;
+  value: unknown;
+  valueFact?: FactRef;
+  judgedOn?: Facts;
+  failed?: boolean;
+}
 
 function newEngine(base: RuleBase): Engine {
   // Paths are "$.name" or "$.name.field" (the schema allows no other): property reads, not a JSONPath query,
@@ -127,6 +140,8 @@ export class ScreenedRules {
     reads: ReadonlySet<string>;
   }[];
   private readonly operators: { get(name: string): Judging | null };
+  /** Each distinct comparison once, by its fact, path, operator and value. */
+  private readonly comparisons = new Map<string, Comparison>();
   /** How many rules: the derive set's bounds the runs to a fixpoint. */
   readonly size: number;
 
@@ -180,13 +195,16 @@ export class ScreenedRules {
     if ('not' in c) return undefined;
     const operator = this.operators.get(c.operator);
     if (!operator) return undefined;
-    const compare = factRef(c.fact, c.path);
-    const value: unknown = c.value;
-    if (value !== null && typeof value === 'object' && !Array.isArray(value)) {
-      const other = value as { fact: string; path?: string | undefined };
-      return { compare, operator, value, valueFact: factRef(other.fact, other.path) };
+    const key = JSON.stringify([c.fact, c.path ?? null, c.operator, c.value]);
+    let comparison = this.comparisons.get(key);
+    if (!comparison) {
+      const compare = factRef(c.fact, c.path);
+      const value: unknown = c.value;
+      const other = value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as { fact: string; path?: string | undefined }) : undefined;
+      comparison = other ? { compare, operator, value, valueFact: factRef(other.fact, other.path) } : { compare, operator, value };
+      this.comparisons.set(key, comparison);
     }
-    return { compare, operator, value };
+    return comparison;
   }
 
   /**
@@ -262,8 +280,12 @@ function fails(screen: Screen, facts: Facts): boolean {
     for (const x of screen.any) if (!fails(x, facts)) return false;
     return true;
   }
-  const value = screen.valueFact ? factValue(facts, screen.valueFact) : screen.value;
-  return !screen.operator.evaluate(factValue(facts, screen.compare), value);
+  if (screen.judgedOn !== facts) {
+    const value = screen.valueFact ? factValue(facts, screen.valueFact) : screen.value;
+    screen.failed = !screen.operator.evaluate(factValue(facts, screen.compare), value);
+    screen.judgedOn = facts;
+  }
+  return screen.failed!;
 }
 
 /** A fact as json-rules-engine's almanac reads it for a condition: the value, then its path if it is an object (readPath, "$.a.b" included). */
@@ -309,7 +331,12 @@ export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start:
   const runSet = async (set: ScreenedRules, facts: Facts, only?: ReadonlySet<string>): Promise<{ names: string[]; fired: Fired[] }> => {
     if (!explain) {
       const names = await set.decide(facts, only);
-      return { names, fired: names.flatMap((n) => (byName.has(n) ? [{ rule: byName.get(n)!, tree: undefined }] : [])) };
+      const fired: Fired[] = [];
+      for (const n of names) {
+        const rule = byName.get(n);
+        if (rule) fired.push({ rule, tree: undefined });
+      }
+      return { names, fired };
     }
     const { results } = await set.run(facts, only);
     return { names: results.map((r) => String(r.name)), fired: results.filter((r) => byName.has(String(r.name))).map((r) => ({ rule: byName.get(String(r.name))!, tree: r.toJSON(false).conditions })) };
@@ -332,8 +359,11 @@ export async function runToFixpoint(engines: RuleEngines, base: RuleBase, start:
     if (rerun.size === 0) break;
   }
   const judged = await runSet(engines.judge, facts);
-  const names = judged.names;
-  const withPrefix = (prefix: string) => new Set(names.filter((n) => n.startsWith(prefix)).map((n) => n.slice(prefix.length)));
+  const withPrefix = (prefix: string) => {
+    const found = new Set<string>();
+    for (const n of judged.names) if (n.startsWith(prefix)) found.add(n.slice(prefix.length));
+    return found;
+  };
   const cautions = new Map<string, string[]>();
   for (const entry of withPrefix(CAUTION_PREFIX)) {
     const cut = entry.lastIndexOf(':');
