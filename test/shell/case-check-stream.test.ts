@@ -9,7 +9,8 @@ import { describe, expect, it } from 'vitest';
 import { checkCases, type CaseRank } from '../../src/engine/check-cases.js';
 import { caseCheckPrinter } from '../../src/shell/stream-case-check.js';
 import { ok } from '../../src/knowledge/result.js';
-import { runCli } from '../support/cli.js';
+import { spawnSync } from 'node:child_process';
+import { CLI, runCli } from '../support/cli.js';
 import { builtInRules, CASES_DIR } from '../support/rules.js';
 
 /** The recorded cases again and again under new ids: enough files for the worker threads to start. */
@@ -42,6 +43,18 @@ describe('cases check over many files', () => {
     const starved = runCli(['cases', 'check', dir, '--json'], { env: { DCTRIAGE_THREADS: '2', DCTRIAGE_WORKER_HEAP_MB: '2' } });
     expect(starved.code).toBe(one.code);
     expect(JSON.parse(starved.stdout)).toEqual(JSON.parse(one.stdout));
+  }, 120_000);
+
+  it('in a thread of its own, keeps the exit code, names a broken file, and stops quietly for a reader that stops early', () => {
+    const dir = manyCases(230);
+    writeFileSync(join(dir, '99999-broken.json'), '{"format":"dc-case/1","machine":{"connection":"shunt"},"readings":{"speed":"fast"}}');
+    const broken = runCli(['cases', 'check', dir], { env: { DCTRIAGE_THREADS: '2' } });
+    expect(broken.code).toBe(2);
+    expect(broken.stderr).toContain(`${join(dir, '99999-broken.json')}: at readings.speed:`);
+    // A reader that takes one line and goes: no error, the exit status of a finished command.
+    const head = spawnSync('bash', ['-c', `"${process.execPath}" "${CLI}" cases check "${dir}" --json | head -1; echo "status \${PIPESTATUS[0]}" >&2`], { encoding: 'utf8', env: { ...process.env, DCTRIAGE_THREADS: '2' } });
+    expect(head.stdout).toBe('{\n');
+    expect(head.stderr).toBe('status 0\n');
   }, 120_000);
 
   it('writes a valid report with no cases', () => {
