@@ -6,6 +6,7 @@
  */
 import type { CaseCheckReport, CaseRank, CaseStream, SkippedCase } from '../engine/check-cases.js';
 import type { Result } from '../knowledge/result.js';
+import { basename, dirname, join } from 'node:path';
 import { wrapText } from './wrap.js';
 
 export interface CaseCheckPrinter {
@@ -28,8 +29,31 @@ const indent = (text: string, by: string) => text.replace(/\n/g, `\n${by}`);
 const shorten = (s: string, n: number) => (s.length > n ? `${s.slice(0, Math.max(1, n - 1))}…` : s);
 const loopWords = (c: CaseRank) => (!c.loop ? '' : c.loop.correct ? `found, ${c.loop.minutes} min` : c.loop.confirmed ? `WRONG: ${c.loop.confirmed}` : 'not found');
 
-export function caseCheckPrinter(mode: 'json' | 'text', write: (text: string) => void, progress?: (text: string) => void, opts: PrinterOptions = {}): CaseCheckPrinter {
-  const shown = opts.shownPath ?? ((f: string) => f);
+/** Output is held until there is this much, or this long has passed, or a count is shown, or the check ends: one write for many cases. */
+const FLUSH_AT = 32 * 1024;
+const FLUSH_AFTER_MS = 100;
+
+export function caseCheckPrinter(mode: 'json' | 'text', writeOut: (text: string) => void, progress?: (text: string) => void, opts: PrinterOptions = {}): CaseCheckPrinter {
+  let held = '';
+  let heldSince = 0;
+  const flush = () => {
+    if (held) writeOut(held);
+    held = '';
+  };
+  const write = (text: string) => {
+    if (!held) heldSince = Date.now();
+    held += text;
+    if (held.length >= FLUSH_AT || Date.now() - heldSince >= FLUSH_AFTER_MS) flush();
+  };
+  // Files of one folder are shown as that folder is: worked out once per folder.
+  const shownPath = opts.shownPath ?? ((f: string) => f);
+  const shownFolders = new Map<string, string>();
+  const shown = (file: string) => {
+    const folder = dirname(file);
+    let as = shownFolders.get(folder);
+    if (as === undefined) shownFolders.set(folder, (as = dirname(shownPath(file))));
+    return join(as, basename(file));
+  };
   const width = opts.width ?? 100;
   // rank and flag take 12 columns with their gaps, the two gaps between the names 4, the replay
   // of recorded checks 18 on a wide terminal; the rest is shared by the case, its cause and the leader.
@@ -47,6 +71,7 @@ export function caseCheckPrinter(mode: 'json' | 'text', write: (text: string) =>
         const now = Date.now();
         if (now - shownAt < 200 && done !== of) return;
         shownAt = now;
+        flush();
         progress(`\r${done} of ${of} case files`);
       }
     : undefined;
@@ -74,16 +99,17 @@ export function caseCheckPrinter(mode: 'json' | 'text', write: (text: string) =>
   return {
     stream: { onCase, ...(onProgress ? { onProgress } : {}), keep: false },
     end(report) {
+      flush();
       if (progress) progress('\r\u001b[K');
       if (!report.ok) {
-        if (mode === 'json' && count > 0) write('\n  ]\n}\n');
+        if (mode === 'json' && count > 0) writeOut('\n  ]\n}\n');
         return out;
       }
       const r = report.value;
       const skipped = r.skipped.map((s) => ({ ...s, file: shown(s.file) }));
       if (mode === 'json') {
         const opening = count === 0 ? `{\n${opts.format ? `  "format": ${JSON.stringify(opts.format)},\n` : ''}  "cases": []` : '\n  ]';
-        write(`${opening},\n  "total": ${r.total},\n  "top1": ${r.top1},\n  "top3": ${r.top3},\n  "skipped": ${indent(JSON.stringify(skipped, null, 2), '  ')}\n}\n`);
+        writeOut(`${opening},\n  "total": ${r.total},\n  "top1": ${r.top1},\n  "top3": ${r.top3},\n  "skipped": ${indent(JSON.stringify(skipped, null, 2), '  ')}\n}\n`);
       } else {
         const pct = (n: number) => (r.total ? `${Math.round((n / r.total) * 100)} %` : '–');
         const lines = [`${r.total} cases: ${r.top1} ranked first (${pct(r.top1)}), ${r.top3} in the top 3 (${pct(r.top3)}).`];
@@ -91,7 +117,7 @@ export function caseCheckPrinter(mode: 'json' | 'text', write: (text: string) =>
           lines.push(`${replay.cases} cases record the checks worked: replayed, ${replay.found} confirm their recorded cause${replay.found ? ` (after ${Math.round(replay.minutes / replay.found)} min of checks on average)` : ''}, ${replay.other} confirm another, ${replay.none} confirm nothing.`);
         }
         lines.push(...skippedLines(skipped));
-        write(`${count ? '\n' : ''}${wrapText(lines.join('\n'), width)}\n`);
+        writeOut(`${count ? '\n' : ''}${wrapText(lines.join('\n'), width)}\n`);
       }
       return out;
     },

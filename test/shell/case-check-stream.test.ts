@@ -5,7 +5,7 @@
 import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { checkCases, type CaseRank } from '../../src/engine/check-cases.js';
 import { caseCheckPrinter } from '../../src/shell/stream-case-check.js';
 import { ok } from '../../src/knowledge/result.js';
@@ -68,20 +68,37 @@ describe('cases check over many files', () => {
 describe('the printer', () => {
   const c = (id: string, rank: number): CaseRank => ({ id, file: `${id}.json`, expected: 'field-weak', rank, ranked: ['field-weak'] });
 
-  it('prints each case as it comes, a count for a terminal, and clears the count at the end', () => {
+  it('prints the cases as they come (held at most a moment, and before each count), a count for a terminal, and clears the count at the end', () => {
     const out: string[] = [];
     const progress: string[] = [];
     const p = caseCheckPrinter('text', (t) => out.push(t), (t) => progress.push(t));
     p.stream.onCase!(c('a', 1));
+    // Held for one write with the next ones; a count shows what is held first.
+    expect(out).toEqual([]);
+    p.stream.onProgress!(2, 2);
     expect(out.join('')).toMatch(/^ {2}rank {6}case/);
     expect(out.join('')).toContain('a');
-    p.stream.onProgress!(2, 2);
     p.stream.onCase!(c('b', 5));
     const someOut = p.end(ok({ total: 2, top1: 1, top3: 1, cases: [], skipped: [] }));
     expect(someOut).toBe(true);
     expect(progress).toEqual(['\r2 of 2 case files', '\r\u001b[K']);
     expect(out.join('')).toMatch(/ {5}5 OUT {2}b/);
     expect(out.join('')).toMatch(/2 cases: 1 ranked first \(50 %\), 1 in the top 3 \(50 %\)\.\n$/);
+  });
+
+  it('writes what it holds once a tenth of a second has passed, with no count to show', () => {
+    vi.useFakeTimers();
+    try {
+      const out: string[] = [];
+      const p = caseCheckPrinter('json', (t) => out.push(t));
+      p.stream.onCase!(c('a', 1));
+      expect(out).toEqual([]);
+      vi.advanceTimersByTime(150);
+      p.stream.onCase!(c('b', 1));
+      expect(out.join('')).toContain('"id": "b"');
+    } finally {
+      vi.useRealTimers();
+    }
   });
 
   it('keeps no case in memory', async () => {
