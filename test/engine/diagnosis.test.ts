@@ -41,6 +41,14 @@ describe('reversal rules agree with the physics', () => {
     expect(seriesSwapped.causes[0]?.id).toBe('differential-compound');
   });
 
+  it('asks which terminations were re-made only when work may have been done', async () => {
+    const asked = async (work?: string) => (await diagnoseJob({ machine: shunt, symptoms: ['reversed-rotation'], observations: work ? { 'recent-work': work } : {} })).askable.has('leads-disturbed');
+    expect(await asked('none')).toBe(false);
+    expect(await asked('rewired')).toBe(true);
+    expect(await asked('brushes-replaced')).toBe(true);
+    expect(await asked()).toBe(true);
+  });
+
   it('on tacho feedback a lead swap without re-polarising the feedback runs away instead of reversing', async () => {
     const d = await diagnoseJob({
       machine: { ...shunt, drive: 'controlled-converter', feedback: 'tacho' },
