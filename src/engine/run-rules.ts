@@ -88,10 +88,10 @@ const factRef = (fact: string, path: string | undefined): FactRef => ({ fact, na
 
 /**
  * The part of a condition the screen can judge before a run: comparisons of a fact with a
- * constant or with another fact, and `all` and `any` of those (a `not` is never judged). When a
+ * constant or with another fact, and `all`, `any` and `not` of those (a `not` only of what is judged whole). When a
  * screen fails, the condition is false.
  */
-type Screen = Comparison | { all: Screen[] } | { any: Screen[] };
+type Screen = Comparison | { all: Screen[] } | { any: Screen[] } | { not: Screen };
 
 /**
  * One comparison of a screen. The same comparison in many rules (a symptom, a fit's verdict) is
@@ -128,14 +128,14 @@ function newEngine(base: RuleBase): Engine {
  * and shared conditions; a rule they show false is left out, as the engine would have failed it.
  * The engine still decides every rule it runs, with its whole condition tree for explanations.
  * A ranking needs no explanations (`decide`): there a screen that judges the whole condition
- * decides its rule, and only the rules with a `not` go to the engine.
+ * decides its rule, and only rules with an operator the screen does not know go to the engine.
  */
 export class ScreenedRules {
   private readonly rules: {
     rule: EngineRule;
     name: string;
     screen: Screen | undefined;
-    /** The screen judges the whole condition (no `not`, every operator known): its verdict is the engine's. */
+    /** The screen judges the whole condition (every operator known): its verdict is the engine's. */
     whole: boolean;
     reads: ReadonlySet<string>;
   }[];
@@ -160,7 +160,7 @@ export class ScreenedRules {
 
   /**
    * Whether the screen judges all of a condition: every part a comparison with a known operator,
-   * through `all`, `any` and shared conditions, and no `not`. Then the screen passes exactly when
+   * through `all`, `any`, `not` and shared conditions. Then the screen passes exactly when
    * the engine fires (test/engine/screened-rules.test.ts holds it to that).
    */
   private judgesWhole(c: Condition, via: Set<string>): boolean {
@@ -170,7 +170,7 @@ export class ScreenedRules {
       const shared = Object.hasOwn(this.base.conditions, c.condition) ? this.base.conditions[c.condition] : undefined;
       return shared !== undefined && !via.has(c.condition) && this.judgesWhole(shared, new Set([...via, c.condition]));
     }
-    if ('not' in c) return false;
+    if ('not' in c) return this.judgesWhole(c.not, via);
     return this.operators.get(c.operator) !== null;
   }
 
@@ -192,7 +192,11 @@ export class ScreenedRules {
       if (!shared || via.has(c.condition)) return undefined;
       return this.screenOf(shared, new Set([...via, c.condition]));
     }
-    if ('not' in c) return undefined;
+    // A not is judged only when what it negates is judged whole: a part left out would turn its verdict round.
+    if ('not' in c) {
+      const inner = this.judgesWhole(c.not, via) ? this.screenOf(c.not, via) : undefined;
+      return inner ? { not: inner } : undefined;
+    }
     const operator = this.operators.get(c.operator);
     if (!operator) return undefined;
     const key = JSON.stringify([c.fact, c.path ?? null, c.operator, c.value]);
@@ -227,17 +231,13 @@ export class ScreenedRules {
    */
   async decide(facts: Facts, only?: ReadonlySet<string>): Promise<string[]> {
     const fired: string[] = [];
-    const engine = newEngine(this.base);
-    let left = 0;
+    let engine: Engine | undefined;
     for (const { rule, name, screen, whole } of this.rules) {
       if ((only && !only.has(name)) || (screen && fails(screen, facts))) continue;
       if (whole) fired.push(name);
-      else {
-        engine.addRule(rule);
-        left++;
-      }
+      else (engine ??= newEngine(this.base)).addRule(rule);
     }
-    if (left > 0) for (const r of (await engine.run(constantFacts(facts))).results) fired.push(String(r.name));
+    if (engine) for (const r of (await engine.run(constantFacts(facts))).results) fired.push(String(r.name));
     return fired;
   }
 
@@ -280,6 +280,7 @@ function fails(screen: Screen, facts: Facts): boolean {
     for (const x of screen.any) if (!fails(x, facts)) return false;
     return true;
   }
+  if ('not' in screen) return !fails(screen.not, facts);
   if (screen.judgedOn !== facts) {
     const value = screen.valueFact ? factValue(facts, screen.valueFact) : screen.value;
     screen.failed = !screen.operator.evaluate(factValue(facts, screen.compare), value);
