@@ -40,6 +40,7 @@ import { assetHistory, earlierJobsNote, type RecordedJob } from './engine/asset-
 import { caseCheckPrinter } from './shell/stream-case-check.js';
 import { caseCheckWorkerJob, checkCasesInParallel, runCaseCheckWorker } from './shell/parallel-case-check.js';
 import { terminalFacts } from './launch/off-thread.js';
+import { watchStdout } from './launch/watch-stdout.js';
 import { helpFor } from './shell/help.js';
 import { addCase, adoptDraft, checkRules, draftRule, reviewJob, type Outcome } from './shell/lead-commands.js';
 import { readCommandLine } from './shell/cli-options.js';
@@ -519,18 +520,6 @@ function earlierJobsFor(opts: { rules?: string | undefined; cases?: string | und
     }
     return earlierJobsNote(assetHistory(asset, jobs, titles), today());
   };
-}
-
-let watchingStdout = false;
-/** Once per process: a reader that stops early (dctriage … | head) is not an error; another write failure is one line. */
-function watchStdout(): void {
-  if (watchingStdout) return;
-  watchingStdout = true;
-  process.stdout.on('error', (e: NodeJS.ErrnoException) => {
-    if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
-    process.stderr.write(`dctriage: cannot write the output: ${e.message}\n`);
-    process.exit(74);
-  });
 }
 
 /**

@@ -114,7 +114,7 @@ export function loopReplayer(base: RuleBase, engine: RuleEngines = buildEngine(b
     for (let k = 1; k <= checks.length; k++) {
       minutes += minutesOf.get(checks[k - 1]!.id) ?? 0;
       const d = await rankCauses({ ...job, checks: checks.slice(0, k) }, base, engine);
-      if (d.confirmed !== null) return { worked: checks.length, confirmed: d.confirmed, correct: d.confirmed !== null && same(d.confirmed, expected), minutes, after: k };
+      if (d.confirmed !== null) return { worked: checks.length, confirmed: d.confirmed, correct: same(d.confirmed, expected), minutes, after: k };
     }
     return { worked: checks.length, confirmed: null, correct: false, minutes, after: checks.length };
   };

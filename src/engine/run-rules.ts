@@ -153,52 +153,44 @@ export class ScreenedRules {
     this.operators = (newEngine(base) as unknown as { operators: { get(name: string): Judging | null } }).operators;
     this.rules = rules.map((r) => {
       const conditions = r.conditions as Condition;
-      return { rule: new EngineRule(r), name: String(r.name), screen: this.screenOf(conditions, new Set()), whole: this.judgesWhole(conditions, new Set()), reads: new Set(factsRead(conditions, base.conditions)) };
+      const { screen, whole } = this.screenOf(conditions, new Set());
+      return { rule: new EngineRule(r), name: String(r.name), screen, whole, reads: new Set(factsRead(conditions, base.conditions)) };
     });
     this.size = rules.length;
   }
 
   /**
-   * Whether the screen judges all of a condition: every part a comparison with a known operator,
-   * through `all`, `any`, `not` and shared conditions. Then the screen passes exactly when
-   * the engine fires (test/engine/screened-rules.test.ts holds it to that).
+   * What of a condition can be judged before a run (undefined when nothing can), and whether that
+   * is all of it: every part a comparison with a known operator, through `all`, `any`, `not` and
+   * shared conditions. A screen of the whole passes exactly when the engine fires
+   * (test/engine/screened-rules.test.ts holds it to that); a screen of a part can only fail.
    */
-  private judgesWhole(c: Condition, via: Set<string>): boolean {
-    if ('all' in c) return c.all.length > 0 && c.all.every((x) => this.judgesWhole(x, via));
-    if ('any' in c) return c.any.length > 0 && c.any.every((x) => this.judgesWhole(x, via));
-    if ('condition' in c) {
-      const shared = Object.hasOwn(this.base.conditions, c.condition) ? this.base.conditions[c.condition] : undefined;
-      return shared !== undefined && !via.has(c.condition) && this.judgesWhole(shared, new Set([...via, c.condition]));
-    }
-    if ('not' in c) return this.judgesWhole(c.not, via);
-    return this.operators.get(c.operator) !== null;
-  }
-
-  /** What of a condition can be judged before a run; undefined when nothing can. */
-  private screenOf(c: Condition, via: Set<string>): Screen | undefined {
+  private screenOf(c: Condition, via: Set<string>): { screen: Screen | undefined; whole: boolean } {
     if ('all' in c) {
       // All fails when any judged part fails: the parts not judged are left out.
-      const parts = c.all.flatMap((x) => this.screenOf(x, via) ?? []);
-      return parts.length ? { all: parts } : undefined;
+      const parts = c.all.map((x) => this.screenOf(x, via));
+      const judged = parts.flatMap((p) => p.screen ?? []);
+      return { screen: judged.length ? { all: judged } : undefined, whole: parts.length > 0 && parts.every((p) => p.whole) };
     }
     if ('any' in c) {
       // Any fails only when every part fails: one part not judged leaves it undecided.
       const parts = c.any.map((x) => this.screenOf(x, via));
-      return parts.every((x) => x !== undefined) ? { any: parts as Screen[] } : undefined;
+      const judged = parts.every((p) => p.screen !== undefined);
+      return { screen: judged ? { any: parts.map((p) => p.screen!) } : undefined, whole: parts.length > 0 && parts.every((p) => p.whole) };
     }
     if ('condition' in c) {
       // The engine evaluates a shared condition in the place of its reference.
       const shared = Object.hasOwn(this.base.conditions, c.condition) ? this.base.conditions[c.condition] : undefined;
-      if (!shared || via.has(c.condition)) return undefined;
+      if (!shared || via.has(c.condition)) return { screen: undefined, whole: false };
       return this.screenOf(shared, new Set([...via, c.condition]));
     }
     // A not is judged only when what it negates is judged whole: a part left out would turn its verdict round.
     if ('not' in c) {
-      const inner = this.judgesWhole(c.not, via) ? this.screenOf(c.not, via) : undefined;
-      return inner ? { not: inner } : undefined;
+      const inner = this.screenOf(c.not, via);
+      return inner.whole ? { screen: { not: inner.screen! }, whole: true } : { screen: undefined, whole: false };
     }
     const operator = this.operators.get(c.operator);
-    if (!operator) return undefined;
+    if (!operator) return { screen: undefined, whole: false };
     const key = JSON.stringify([c.fact, c.path ?? null, c.operator, c.value]);
     let comparison = this.comparisons.get(key);
     if (!comparison) {
@@ -208,7 +200,7 @@ export class ScreenedRules {
       comparison = other ? { compare, operator, value, valueFact: factRef(other.fact, other.path) } : { compare, operator, value };
       this.comparisons.set(key, comparison);
     }
-    return comparison;
+    return { screen: comparison, whole: true };
   }
 
   /**
@@ -244,7 +236,7 @@ export class ScreenedRules {
   /** The names of the rules whose conditions read any of these facts (shared conditions followed). */
   reading(facts: Iterable<string>): Set<string> {
     const names = new Set<string>();
-    for (const fact of facts) for (const { rule, reads } of this.rules) if (reads.has(fact)) names.add(String(rule.name));
+    for (const fact of facts) for (const { name, reads } of this.rules) if (reads.has(fact)) names.add(name);
     return names;
   }
 
@@ -252,8 +244,8 @@ export class ScreenedRules {
     // Adding a rule points it at this run's engine; runs that overlap point it at engines made
     // alike (the same operators and shared conditions), so a rule evaluates the same in either.
     const engine = newEngine(this.base);
-    for (const { rule, screen } of this.rules) {
-      if (only && !only.has(String(rule.name))) continue;
+    for (const { rule, name, screen } of this.rules) {
+      if (only && !only.has(name)) continue;
       if (!screened || !screen || !fails(screen, facts)) engine.addRule(rule);
     }
     return engine.run(constantFacts(facts));

@@ -7,6 +7,7 @@
 import { isMainThread, Worker, workerData } from 'node:worker_threads';
 import type { CommandLine } from '../shell/cli-options.js';
 import { COMMAND_LIMITS, threadsWanted } from './threads.js';
+import { watchStdout } from './watch-stdout.js';
 
 /** What the command thread cannot see for itself: its output goes through the main thread, not to the terminal. */
 export interface TerminalFacts {
@@ -26,8 +27,10 @@ export function runsOffThread(line: CommandLine): boolean {
 /** The terminal as the main thread sees it, in the command thread; the streams' own, elsewhere. */
 export function terminalFacts(): TerminalFacts {
   const job = isMainThread ? undefined : (workerData as CommandJob | undefined)?.dctriageCommand;
-  return job?.terminal ?? { stdoutColumns: process.stdout.columns, stderrIsTTY: process.stderr.isTTY === true };
+  return job?.terminal ?? ownTerminal();
 }
+
+const ownTerminal = (): TerminalFacts => ({ stdoutColumns: process.stdout.columns, stderrIsTTY: process.stderr.isTTY === true });
 
 /**
  * Runs the command line in a worker thread started on `script` (this launcher again) and waits
@@ -35,14 +38,10 @@ export function terminalFacts(): TerminalFacts {
  */
 export function runOffThread(script: string, argv: string[]): Promise<void> {
   return new Promise((resolve) => {
-    const job: CommandJob = { dctriageCommand: { terminal: { stdoutColumns: process.stdout.columns, stderrIsTTY: process.stderr.isTTY === true } } };
+    const job: CommandJob = { dctriageCommand: { terminal: ownTerminal() } };
     const worker = new Worker(script, { argv, workerData: job, resourceLimits: COMMAND_LIMITS });
-    // The output is written here: a reader that stops early (… | head) ends the command quietly,
-    // any other failure to write is one line and exit 74, as in the main thread.
-    process.stdout.on('error', (e: NodeJS.ErrnoException) => {
-      if (e.code !== 'EPIPE') process.stderr.write(`dctriage: cannot write the output: ${e.message}\n`);
-      process.exit(e.code === 'EPIPE' ? (process.exitCode ?? 0) : 74);
-    });
+    // The output is written here, so its failures are met here as a command in this thread meets them.
+    watchStdout();
     worker.on('error', (e: Error & { code?: string }) => {
       const why = e.code === 'ERR_WORKER_OUT_OF_MEMORY' ? `the check ran out of its ${COMMAND_LIMITS.maxOldGenerationSizeMb} MB of memory (DCTRIAGE_THREADS=1 runs it without that limit)` : e.message;
       process.stderr.write(`dctriage: internal error: ${why}\nPlease report this with the folder you gave.\n`);

@@ -232,11 +232,13 @@ export function fitReadings(machine: ModelMachine, given: Readings): FitReport |
   // in which values they call that fault (a weak and a strong field) share one search.
   const searched = new Map<string, number>();
   const withUncoupled = usesUncoupled(b, r);
+  /** The neutral world with one quantity set: a search sets it again for each value it tries. */
+  const worldWith = (acts: keyof World, value: number): World => ({ ...neutral, [acts]: value });
   const bestValue = (acts: keyof World, lo: number, hi: number): number => {
     const key = `${acts} ${lo} ${hi}`;
     let value = searched.get(key);
     if (value === undefined) {
-      const world = { ...neutral };
+      const world = worldWith(acts, lo);
       const trial = predict(b, world, ia, noLoadIa, withUncoupled);
       value = minimise((x) => {
         world[acts] = x;
@@ -276,9 +278,7 @@ export function fitReadings(machine: ModelMachine, given: Readings): FitReport |
     }
     const [lo, hi] = h.search(b, r);
     const value = bestValue(h.acts!, lo, hi);
-    const world = { ...neutral };
-    world[h.acts!] = value;
-    const prediction = predict(b, world, ia, noLoadIa);
+    const prediction = predict(b, worldWith(h.acts!, value), ia, noLoadIa);
     const rs = residuals(prediction);
     // The load this fault would leave on the shaft: beyond rating, the current is not explained.
     if (prediction.torquePu > LOAD_WITHIN_RATING) {

@@ -2,7 +2,7 @@
  * A one-parameter minimum over a range: a grid finds the basin of the lowest value (a misfit may
  * have more than one), then Brent's method closes in on it — parabolic steps through the three
  * best points where they help, golden-section steps where they do not. It reaches the precision a
- * minimum allows (about √ε relative: f is flat there to first order) in a dozen or so evaluations,
+ * minimum allows (about √ε relative: f is flat there to first order) in about twenty evaluations,
  * where golden section alone takes about fifty.
  *
  * Source: R. P. Brent, Algorithms for Minimization without Derivatives (1973), ch. 5, procedure
